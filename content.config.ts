@@ -1,0 +1,10 @@
+import { defineCollection, defineContentConfig } from '@nuxt/content'
+
+export default defineContentConfig({
+  collections: {
+    methods: defineCollection({
+      type: 'page',
+      source: 'methods/**/*.md',
+    }),
+  },
+})

@@ -1,0 +1,18 @@
+// Steps shared by `npm start` and `npm test`: dependencies, services, migrations.
+import { existsSync, statSync } from 'node:fs'
+import { join } from 'node:path'
+import { root } from './config.mjs'
+import { log, runOrThrow } from './run.mjs'
+
+/** Installs the npm dependencies when node_modules is missing or older than the lock file. */
+export async function ensureDependencies() {
+  const modules = join(root, 'node_modules', '.package-lock.json')
+  const lock = join(root, 'package-lock.json')
+  if (existsSync(modules) && existsSync(lock) && statSync(modules).mtimeMs >= statSync(lock).mtimeMs) return
+  log('installing npm dependencies (first run takes a few minutes)')
+  await runOrThrow('npm', existsSync(lock) ? ['ci', '--no-audit', '--no-fund'] : ['install', '--no-audit', '--no-fund'], { cwd: root })
+}
+
+export function npxBin(name) {
+  return join(root, 'node_modules', '.bin', name)
+}

@@ -1,0 +1,6 @@
+export default defineEventHandler(async (event) => {
+  requireUser(event)
+  await endSession(event)
+  setResponseStatus(event, 204)
+  return null
+})

@@ -1,0 +1,17 @@
+export default defineEventHandler(async (event) => {
+  const { slug } = readParamsWith(event, slugParams)
+  const { companion, role, membershipRole } = await requireCompanionRole(event, slug, 'reader')
+  return {
+    companion: {
+      slug: companion.slug,
+      title: companion.title,
+      abstract: companion.abstract,
+      manuscriptRef: companion.manuscriptRef,
+      state: companion.state,
+      createdAt: companion.createdAt,
+      updatedAt: companion.updatedAt,
+    },
+    role,
+    membershipRole,
+  }
+})

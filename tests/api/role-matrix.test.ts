@@ -1,0 +1,154 @@
+// Every API route × every role, with the status each must get. A route added to server/api
+// without a row here fails the coverage check at the bottom.
+import { readdirSync, statSync } from 'node:fs'
+import { join, relative } from 'node:path'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { ApiClient, makeAdmin, signUp, uniqueName } from '../support/http'
+import type { TestAccount } from '../support/http'
+
+const roles = ['anonymous', 'member', 'reader', 'reviewer', 'author', 'editor', 'admin'] as const
+type Role = typeof roles[number]
+
+interface Row {
+  route: string
+  expect: Record<Role, number>
+  call: (as: Role) => Promise<number>
+}
+
+const accounts = {} as Record<Exclude<Role, 'anonymous'>, TestAccount>
+let slug = ''
+
+function clientFor(as: Role): ApiClient {
+  if (as === 'anonymous') return new ApiClient()
+  const probe = new ApiClient(accounts[as].client.address)
+  probe.cookie = accounts[as].client.cookie
+  return probe
+}
+
+async function status(as: Role, method: string, path: string, body?: unknown): Promise<number> {
+  return (await clientFor(as).request(method, path, body, { keepCookie: false })).status
+}
+
+/** A fresh account added to the fixture companion by its editor, to be changed or removed. */
+async function throwawayMember(): Promise<TestAccount> {
+  const person = await signUp('throwaway')
+  const reply = await accounts.editor.client.post(`/api/companions/${slug}/members`, { email: person.email, role: 'reader' })
+  if (reply.status !== 201) throw new Error(`could not add a throwaway member: ${reply.status}`)
+  return person
+}
+
+const all = (code: number): Record<Role, number> => Object.fromEntries(roles.map(r => [r, code])) as Record<Role, number>
+const signedIn = (code: number) => ({ ...all(code), anonymous: 401 })
+const editorsOnly = (code: number) => ({ anonymous: 404, member: 404, reader: 403, reviewer: 403, author: 403, editor: code, admin: code })
+const adminsOnly = (code: number) => ({ ...all(403), anonymous: 401, admin: code })
+
+const rows: Row[] = [
+  { route: 'GET /api/health', expect: all(200), call: as => status(as, 'GET', '/api/health') },
+  { route: 'GET /api/auth/session', expect: all(200), call: as => status(as, 'GET', '/api/auth/session') },
+  {
+    route: 'POST /api/auth/sign-up',
+    expect: all(201),
+    call: as => status(as, 'POST', '/api/auth/sign-up', { email: `${uniqueName('matrix')}@tests.example`, password: 'a long enough password', displayName: 'Matrix' }),
+  },
+  {
+    route: 'POST /api/auth/sign-in',
+    expect: all(200),
+    call: async (as) => {
+      const target = await signUp('signin')
+      return status(as, 'POST', '/api/auth/sign-in', { email: target.email, password: target.password })
+    },
+  },
+  {
+    route: 'POST /api/auth/sign-out',
+    expect: { ...all(204), anonymous: 401 },
+    call: async (as) => {
+      if (as === 'anonymous') return status(as, 'POST', '/api/auth/sign-out')
+      // Sign out a second session of the same account, so the matrix keeps its own.
+      const second = new ApiClient()
+      await second.post('/api/auth/sign-in', { email: accounts[as].email, password: accounts[as].password })
+      return (await second.request('POST', '/api/auth/sign-out', {}, { keepCookie: false })).status
+    },
+  },
+  { route: 'GET /api/account', expect: signedIn(200), call: as => status(as, 'GET', '/api/account') },
+  { route: 'PATCH /api/account', expect: signedIn(200), call: as => status(as, 'PATCH', '/api/account', { displayName: `Matrix ${as}`, affiliation: '', orcid: '' }) },
+  { route: 'GET /api/companions', expect: all(200), call: as => status(as, 'GET', '/api/companions') },
+  {
+    route: 'POST /api/companions',
+    expect: signedIn(201),
+    call: as => status(as, 'POST', '/api/companions', { title: `Made by ${as}`, slug: uniqueName('matrix-') }),
+  },
+  {
+    route: 'GET /api/companions/[slug]',
+    expect: { anonymous: 404, member: 404, reader: 200, reviewer: 200, author: 200, editor: 200, admin: 200 },
+    call: as => status(as, 'GET', `/api/companions/${slug}`),
+  },
+  { route: 'PATCH /api/companions/[slug]', expect: editorsOnly(200), call: as => status(as, 'PATCH', `/api/companions/${slug}`, { abstract: `Edited by ${as}` }) },
+  { route: 'GET /api/companions/[slug]/members', expect: editorsOnly(200), call: as => status(as, 'GET', `/api/companions/${slug}/members`) },
+  {
+    route: 'POST /api/companions/[slug]/members',
+    expect: editorsOnly(201),
+    call: async (as) => {
+      const person = await signUp('invitee')
+      return status(as, 'POST', `/api/companions/${slug}/members`, { email: person.email, role: 'reader' })
+    },
+  },
+  {
+    route: 'PATCH /api/companions/[slug]/members/[userId]',
+    expect: editorsOnly(200),
+    call: async as => status(as, 'PATCH', `/api/companions/${slug}/members/${(await throwawayMember()).id}`, { role: 'reviewer' }),
+  },
+  {
+    route: 'DELETE /api/companions/[slug]/members/[userId]',
+    expect: editorsOnly(204),
+    call: async as => status(as, 'DELETE', `/api/companions/${slug}/members/${(await throwawayMember()).id}`),
+  },
+  { route: 'GET /api/admin/users', expect: adminsOnly(200), call: as => status(as, 'GET', '/api/admin/users') },
+  {
+    route: 'PATCH /api/admin/users/[id]',
+    expect: adminsOnly(200),
+    call: async as => status(as, 'PATCH', `/api/admin/users/${(await signUp('promote')).id}`, { siteRole: 'member' }),
+  },
+]
+
+beforeAll(async () => {
+  for (const role of roles) {
+    if (role !== 'anonymous') accounts[role] = await signUp(`matrix-${role}`)
+  }
+  await makeAdmin(accounts.admin)
+  slug = uniqueName('matrix-fixture-')
+  const created = await accounts.editor.client.post('/api/companions', { title: 'Role matrix fixture', slug })
+  if (created.status !== 201) throw new Error(`fixture companion not created: ${created.status}`)
+  for (const role of ['reader', 'reviewer', 'author'] as const) {
+    const reply = await accounts.editor.client.post(`/api/companions/${slug}/members`, { email: accounts[role].email, role })
+    if (reply.status !== 201) throw new Error(`fixture member ${role} not added: ${reply.status}`)
+  }
+})
+
+describe('role matrix', () => {
+  for (const row of rows) {
+    for (const role of roles) {
+      it(`${row.route} as ${role} → ${row.expect[role]}`, async () => {
+        expect(await row.call(role)).toBe(row.expect[role])
+      })
+    }
+  }
+})
+
+function routesOnDisk(dir: string, base = dir): string[] {
+  return readdirSync(dir).flatMap((name) => {
+    const path = join(dir, name)
+    if (statSync(path).isDirectory()) return routesOnDisk(path, base)
+    const match = /^(.*)\.(get|post|patch|put|delete)\.ts$/.exec(relative(base, path))
+    if (!match) return []
+    const route = `/api/${match[1]}`.replace(/\/index$/, '')
+    return [`${match[2]!.toUpperCase()} ${route}`]
+  })
+}
+
+describe('role matrix coverage', () => {
+  it('has a row for every route in server/api', () => {
+    const onDisk = routesOnDisk(join(process.cwd(), 'server', 'api')).sort()
+    expect(onDisk.length).toBeGreaterThan(10)
+    expect(rows.map(r => r.route).sort()).toEqual(onDisk)
+  })
+})
