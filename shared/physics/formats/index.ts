@@ -1,0 +1,10 @@
+// File formats of point ensembles: readers (text, JSON, NPY), validation, writers and checksums.
+export { type EnsembleFormat, type LabelValue, type PointEnsemble, isEnsemble } from './ensemble'
+export { readText, type TextDelimiter } from './text'
+export { readJson, formatJsonPath } from './json'
+export { readNpy, readNpyHeader, writeNpy, npyHeaderText, hasNpyMagic, parsePythonLiteral, type NpyHeader } from './npy'
+export { readEnsemble, detectFormat, inspectEnsembleFile, type ReadOptions, type Inspection } from './read'
+export { validateEnsemble, collectProblems, findCoincidentPairs, DEFAULT_SPHERE_TOLERANCE, type EnsembleProblem, type ProblemKind, type ValidationOptions } from './validate'
+export { writeCsv, writeJson } from './write'
+export { sha256Hex, configurationChecksum, configurationBytes, ensembleChecksum } from './hash'
+export { formatNumber, parseDecimal } from './numbers'

@@ -1,0 +1,81 @@
+import { describe, it, expect } from 'vitest'
+import { nextOrderEnergy, normaliseNextOrder } from '../../../shared/physics/nextorder'
+import { semicircleMeasure, uniformDiskMeasure } from '../../../shared/physics/equilibrium/closed-forms'
+import { ENGINE_VERSION } from '../../../shared/physics/version'
+import { CANONICAL_CONVENTION } from '../../../shared/physics/conventions'
+import { EngineInputError } from '../../../shared/physics/errors'
+import type { Configuration } from '../../../shared/physics/types'
+import type { Potential } from '../../../shared/physics/potentials/types'
+
+function quadratic(a: number, d: number): Potential {
+  return {
+    d,
+    text: `${a}*r^2`,
+    latex: `${a}|x|^2`,
+    preset: { name: 'quadratic', a },
+    radial: true,
+    value: (p, o = 0) => {
+      let s = 0
+      for (let k = 0; k < d; k++) s += p[o + k] * p[o + k]
+      return a * s
+    },
+    gradient: (p, o, out) => {
+      for (let k = 0; k < d; k++) out[k] = 2 * a * p[o + k]
+    },
+    laplacian: () => 2 * a * d,
+  }
+}
+
+describe('next-order energy', () => {
+  it('one point at the centre of the disk: F_1 = −2 h(0) + ∬ = −1 + ¼ (a = 1, MATH.md §3)', () => {
+    const conf: Configuration = { N: 1, d: 2, points: Float64Array.from([0, 0]) }
+    const res = nextOrderEnergy(conf, { kernel: { name: 'log' }, geometry: { kind: 'free', d: 2 }, potential: quadratic(1, 2) })
+    expect(res.nextOrder).toBeCloseTo(-0.75, 15)
+    expect(res.H).toBe(0)
+    expect(res.IV).toBeCloseTo(0.75, 15)
+    expect(res.cV).toBeCloseTo(0.5, 15)
+    expect(res.zetaSum).toBe(0)
+    expect(res.normalisedNextOrder).toBeCloseTo(-0.75, 15) // (F + (1/2) log 1)/1
+    expect(res.convention).toEqual(CANONICAL_CONVENTION)
+    expect(res.engineVersion).toBe(ENGINE_VERSION)
+    expect(res.measure.method).toBe('closed-form')
+  })
+
+  it('two points on the line: every term by hand (semicircle, a = 1)', () => {
+    // x = ±1/2 inside [−√2, √2]: h = ½ log 2 + ½ − x²/2, ∬ = ½ log 2 + ¼
+    const conf: Configuration = { N: 2, d: 1, points: Float64Array.from([-0.5, 0.5]) }
+    const res = nextOrderEnergy(conf, { kernel: { name: 'log' }, geometry: { kind: 'free', d: 1 }, potential: quadratic(1, 1) })
+    const h = 0.5 * Math.log(2) + 0.5 - 0.125
+    const F = 2 * -Math.log(1) - 2 * 2 * (2 * h) + 4 * (0.5 * Math.log(2) + 0.25)
+    expect(res.nextOrder).toBeCloseTo(F, 14)
+    expect(res.normalisedNextOrder).toBeCloseTo((F + 2 * Math.log(2)) / 2, 14) // d = 1: (F + N log N)/N
+    expect(res.normalisation).toBe('(F_N + (N/1) log N)/N')
+  })
+
+  it('uses the measure it is given', () => {
+    const conf: Configuration = { N: 3, d: 1, points: Float64Array.from([-1, 0.2, 3]) }
+    const own = semicircleMeasure(2)
+    const res = nextOrderEnergy(conf, { kernel: { name: 'log' }, geometry: { kind: 'free', d: 1 }, potential: quadratic(1, 1), measure: own })
+    expect(res.IV).toBe(own.IV)
+    // μ is not μ_V for V = x², so the splitting with μ_V's constants does not hold
+    expect(res.splittingResidual.relative).toBeGreaterThan(1e-6)
+  })
+
+  it('normalises by the published rates', () => {
+    expect(normaliseNextOrder(-10, 100, { name: 'log' }, { kind: 'free', d: 2 }).value).toBeCloseTo((-10 + 50 * Math.log(100)) / 100, 14)
+    expect(normaliseNextOrder(-10, 100, { name: 'log' }, { kind: 'sphere' }).label).toBe('(F_N + (N/2) log N)/N')
+    expect(normaliseNextOrder(-10, 1000, { name: 'coulomb' }, { kind: 'free', d: 3 }).value).toBeCloseTo(-10 / 1000 ** (4 / 3), 16)
+    expect(normaliseNextOrder(-10, 1000, { name: 'riesz', s: 1.5 }, { kind: 'free', d: 3 }).value).toBeCloseTo(-10 / 1000 ** 1.5, 16)
+    expect(() => normaliseNextOrder(1, 10, { name: 'riesz', s: 3 }, { kind: 'free', d: 2 })).toThrow(EngineInputError)
+  })
+
+  it('refuses the torus, a potential on the sphere, and a measure of the wrong dimension', () => {
+    const conf: Configuration = { N: 2, d: 2, points: Float64Array.from([0, 0, 0.5, 0]) }
+    expect(() => nextOrderEnergy(conf, { kernel: { name: 'log' }, geometry: { kind: 'torus', d: 2, L: 1 } })).toThrow(/ewald/i)
+    const s: Configuration = { N: 2, d: 3, points: Float64Array.from([0, 0, 1, 0, 0, -1]) }
+    expect(() => nextOrderEnergy(s, { kernel: { name: 'log' }, geometry: { kind: 'sphere' }, potential: quadratic(1, 3) })).toThrow(/sphere/)
+    expect(() => nextOrderEnergy(conf, { kernel: { name: 'log' }, geometry: { kind: 'free', d: 2 }, potential: quadratic(1, 2), measure: semicircleMeasure(1) })).toThrow(/dimension/)
+    expect(() => nextOrderEnergy(conf, { kernel: { name: 'log' }, geometry: { kind: 'free', d: 2 } })).toThrow(/confining potential/)
+    expect(uniformDiskMeasure(1).d).toBe(2)
+  })
+})
