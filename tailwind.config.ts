@@ -18,7 +18,7 @@ export default <Partial<Config>>{
         rule: token('rule'),
         accent: { DEFAULT: token('accent'), strong: token('accent-strong'), wash: token('accent-wash') },
         caution: { DEFAULT: token('caution'), wash: token('caution-wash') },
-        fine: { DEFAULT: token('fine'), wash: token('fine-wash') },
+        settled: { DEFAULT: token('settled'), wash: token('settled-wash') },
       },
       fontFamily: {
         reading: ['Literata', 'Georgia', 'serif'],

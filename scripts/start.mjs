@@ -1,7 +1,7 @@
 // npm start: dependencies, services, migrations, demo seed, build, then serve on 127.0.0.1.
 import { spawn } from 'node:child_process'
 import { join } from 'node:path'
-import { app, databaseUrl, root } from './lib/config.mjs'
+import { app, databaseUrl, root, serviceEnvironment } from './lib/config.mjs'
 import { startServices } from './lib/services.mjs'
 import { log, runOrThrow } from './lib/run.mjs'
 import { ensureDependencies, npxBin } from './lib/setup.mjs'
@@ -10,7 +10,7 @@ async function main() {
   await ensureDependencies()
   await startServices()
   const url = databaseUrl()
-  const env = { ...process.env, NUXT_DATABASE_URL: url, NUXT_DEPLOYMENT: process.env.NUXT_DEPLOYMENT ?? 'demo', NUXT_TELEMETRY_DISABLED: '1' }
+  const env = { ...process.env, ...serviceEnvironment(), NUXT_DEPLOYMENT: process.env.NUXT_DEPLOYMENT ?? 'demo', NUXT_TELEMETRY_DISABLED: '1' }
   const { applyMigrations } = await import('./migrate.mjs')
   await applyMigrations(url)
   const demo = env.NUXT_DEPLOYMENT !== 'production'
@@ -34,7 +34,7 @@ async function main() {
         ? ['', 'Demo accounts (demo seed only; never in production):', ...demoAccounts.map(a => `  ${a.email.padEnd(32)} ${a.password.padEnd(22)} ${a.part}`)]
         : []),
       '',
-      'Ctrl-C stops the application; `npm run services:stop` stops MariaDB.',
+      'Ctrl-C stops the application; `npm run services:stop` stops MariaDB and the object store.',
       '',
     ]
     process.stdout.write(lines.join('\n'))

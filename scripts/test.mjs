@@ -4,7 +4,8 @@
 import { spawn } from 'node:child_process'
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs'
 import { join } from 'node:path'
-import { app, databaseUrl, db, root } from './lib/config.mjs'
+import { app, databaseUrl, dataDir, db, objectStore, root, serviceEnvironment } from './lib/config.mjs'
+import { emptyBucket } from './lib/objectstore.mjs'
 import { recreateDatabase } from './lib/mariadb.mjs'
 import { startServices, stopServices } from './lib/services.mjs'
 import { ensureDebianPackages, log, run, sleep, which } from './lib/run.mjs'
@@ -67,6 +68,8 @@ async function main() {
   let server
   try {
     recreateDatabase(db.testName)
+    rmSync(join(dataDir, 'app-test'), { recursive: true, force: true })
+    if (objectStore.local) await emptyBucket(objectStore.testBucket)
     const testDatabaseUrl = databaseUrl(db.testName)
     const { applyMigrations } = await import('./migrate.mjs')
     await applyMigrations(testDatabaseUrl)
@@ -75,6 +78,7 @@ async function main() {
     const env = {
       ...process.env,
       NUXT_TELEMETRY_DISABLED: '1',
+      ...serviceEnvironment({ test: true }),
       NUXT_DATABASE_URL: testDatabaseUrl,
       NUXT_DEPLOYMENT: 'test',
       NUXT_TRUST_PROXY: 'true',

@@ -33,6 +33,27 @@ export function databaseUrl(name = db.name) {
   return `mysql://${encodeURIComponent(db.user)}:${encodeURIComponent(db.password)}@${db.host}:${db.port}/${name}`
 }
 
+/** Object storage: the local fake unless QF_S3_ENDPOINT points at a real S3 endpoint. */
+export const objectStore = {
+  local: !process.env.QF_S3_ENDPOINT,
+  port: Number(process.env.QF_S3_PORT ?? 3309),
+  bucket: process.env.QF_S3_BUCKET ?? 'quillfield',
+  testBucket: process.env.QF_S3_TEST_BUCKET ?? 'quillfield-test',
+  endpoint: process.env.QF_S3_ENDPOINT ?? `http://127.0.0.1:${Number(process.env.QF_S3_PORT ?? 3309)}`,
+}
+
+/** Environment for the application: where its services are. */
+export function serviceEnvironment({ test = false } = {}) {
+  return {
+    NUXT_DATABASE_URL: databaseUrl(test ? db.testName : db.name),
+    NUXT_S3_ENDPOINT: objectStore.endpoint,
+    NUXT_S3_BUCKET: test ? objectStore.testBucket : objectStore.bucket,
+    NUXT_S3_ACCESS_KEY_ID: process.env.QF_S3_ACCESS_KEY_ID ?? 'S3RVER',
+    NUXT_S3_SECRET_ACCESS_KEY: process.env.QF_S3_SECRET_ACCESS_KEY ?? 'S3RVER',
+    NUXT_DATA_PATH: join(dataDir, test ? 'app-test' : 'app'),
+  }
+}
+
 export const app = {
   host: process.env.QF_HOST ?? '127.0.0.1',
   port: Number(process.env.QF_PORT ?? 3000),

@@ -2,8 +2,9 @@
 // status() → { running, pid, detail }, start() → true when it started it, stop().
 // Later services (object storage fake, SMTP fake) join this list.
 import { mariadb } from './mariadb.mjs'
+import { objectstore } from './objectstore.mjs'
 
-export const services = [mariadb]
+export const services = [mariadb, objectstore]
 
 /** Starts every service; returns the ones this call started (so a caller can stop just those). */
 export async function startServices() {

@@ -2,7 +2,7 @@
 // and sessions are random strings (lucia), companions use auto-increment keys.
 import { relations, sql } from 'drizzle-orm'
 import {
-  bigint, datetime, index, int, mysqlEnum, mysqlTable, text, timestamp, uniqueIndex, varchar,
+  bigint, datetime, double, index, int, json, mysqlEnum, mysqlTable, text, timestamp, uniqueIndex, varchar,
 } from 'drizzle-orm/mysql-core'
 
 const timestamps = {
@@ -57,6 +57,69 @@ export const signInThrottle = mysqlTable('sign_in_throttle', {
   windowStart: datetime('window_start').notNull(),
   lockedUntil: datetime('locked_until'),
 })
+
+export const ENSEMBLE_FORMATS = ['text', 'json', 'npy', 'zip'] as const
+
+// One uploaded dataset: configurations sharing a geometry, dimension and convention. The raw file
+// lives in object storage under a key derived from its SHA-256; the manifest commit records it too.
+export const ensembles = mysqlTable('ensemble', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  companionId: bigint('companion_id', { mode: 'number', unsigned: true }).notNull().references(() => companions.id, { onDelete: 'cascade' }),
+  name: varchar('name', { length: 200 }).notNull(),
+  description: text('description').notNull(),
+  fileName: varchar('file_name', { length: 255 }).notNull(),
+  format: mysqlEnum('format', ENSEMBLE_FORMATS).notNull(),
+  sha256: varchar('sha256', { length: 64 }).notNull(),
+  sizeBytes: bigint('size_bytes', { mode: 'number', unsigned: true }).notNull(),
+  objectKey: varchar('object_key', { length: 200 }).notNull(),
+  d: int('d').notNull(),
+  configurationCount: int('configuration_count').notNull(),
+  pointCount: bigint('point_count', { mode: 'number', unsigned: true }).notNull(),
+  setting: json('setting').$type<EnsembleSettingRecord>().notNull(),
+  uploadedBy: varchar('uploaded_by', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
+  revision: varchar('revision', { length: 40 }).notNull(),
+  // A deterministic subsample of the first configuration, for the preview drawing.
+  preview: json('preview').$type<{ d: number, points: number[][] }>(),
+  ...timestamps,
+}, t => [uniqueIndex('ensemble_companion_sha_unique').on(t.companionId, t.sha256), index('ensemble_companion_idx').on(t.companionId)])
+
+/** What an ensemble declares: geometry, kernel, potential, β and the convention record. */
+export interface EnsembleSettingRecord {
+  geometry: { kind: 'free', d: 1 | 2 | 3 } | { kind: 'torus', d: 1 | 2 | 3, L: number } | { kind: 'sphere' }
+  kernel: { name: 'log' } | { name: 'coulomb' } | { name: 'riesz', s: number }
+  potential: string | null
+  beta: number | null
+  convention: { pairs: 'half' | 'full', fieldScale: 1 | 'N/2' | 'N', logSign: 'minus-log' | 'plus-log', gibbs: 'beta' | 'beta/2' | 'beta N^(2/d-1)/2' }
+  labels: Record<string, string | number>
+}
+
+export const ensembleConfigurations = mysqlTable('ensemble_configuration', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  ensembleId: bigint('ensemble_id', { mode: 'number', unsigned: true }).notNull().references(() => ensembles.id, { onDelete: 'cascade' }),
+  position: int('position').notNull(),
+  n: int('n').notNull(),
+  d: int('d').notNull(),
+  checksum: varchar('checksum', { length: 64 }).notNull(),
+  bbox: json('bbox').$type<{ min: number[], max: number[] }>().notNull(),
+  minDistance: double('min_distance'),
+  labels: json('labels').$type<Record<string, string | number>>().notNull(),
+}, t => [uniqueIndex('configuration_position_unique').on(t.ensembleId, t.position)])
+
+export const TOKEN_SCOPES = ['ensembles:read', 'ensembles:write'] as const
+
+// Tokens for scripted access from a pipeline: shown once, stored as a SHA-256 hash, scoped to one companion.
+export const apiTokens = mysqlTable('api_token', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  companionId: bigint('companion_id', { mode: 'number', unsigned: true }).notNull().references(() => companions.id, { onDelete: 'cascade' }),
+  createdBy: varchar('created_by', { length: 40 }).notNull().references(() => users.id, { onDelete: 'cascade' }),
+  name: varchar('name', { length: 120 }).notNull(),
+  prefix: varchar('prefix', { length: 16 }).notNull(),
+  tokenHash: varchar('token_hash', { length: 64 }).notNull(),
+  scopes: json('scopes').$type<Array<typeof TOKEN_SCOPES[number]>>().notNull(),
+  lastUsedAt: datetime('last_used_at'),
+  revokedAt: datetime('revoked_at'),
+  ...timestamps,
+}, t => [uniqueIndex('api_token_hash_unique').on(t.tokenHash), index('api_token_companion_idx').on(t.companionId)])
 
 export const usersRelations = relations(users, ({ many }) => ({
   memberships: many(memberships),

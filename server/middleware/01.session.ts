@@ -1,8 +1,15 @@
-// Adds the signed-in account and its session to the event context for API requests.
+// Adds who is calling to the event context for API and file requests: the signed-in account and
+// its session (cookie), or an API token (Authorization: Bearer qft_…) — never both.
 export default defineEventHandler(async (event) => {
   event.context.user = null
   event.context.session = null
-  if (!event.path.startsWith('/api/')) return
+  event.context.token = null
+  if (!event.path.startsWith('/api/') && !event.path.startsWith('/files/')) return
+  const token = await tokenFromRequest(event)
+  if (token) {
+    event.context.token = token
+    return
+  }
   const auth = useLucia()
   const sessionId = getCookie(event, auth.sessionCookieName)
   if (!sessionId) return

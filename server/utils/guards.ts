@@ -4,7 +4,12 @@ import type { User } from 'lucia'
 import type { CompanionRole } from '#shared/types/roles'
 import type { CompanionRow } from '#shared/types/db'
 
+function refuseToken(event: H3Event): void {
+  if (event.context.token) throw createError({ statusCode: 403, statusMessage: 'API tokens are accepted only by the ensemble routes of their companion.' })
+}
+
 export function requireUser(event: H3Event): User {
+  refuseToken(event)
   const user = event.context.user
   if (!user) throw createError({ statusCode: 401, statusMessage: 'Sign in to continue.' })
   return user
@@ -44,11 +49,33 @@ export async function findCompanionAccess(event: H3Event, slug: string): Promise
   return { companion, role, membershipRole, user: user ?? null }
 }
 
+export type TokenScope = 'ensembles:read' | 'ensembles:write'
+
+/** Access through an API token: its companion only, within its scope, as its maker's role there. */
+async function tokenAccess(event: H3Event, slug: string, minimum: CompanionRole, scope: TokenScope | undefined): Promise<CompanionAccess> {
+  const token = event.context.token!
+  if (!scope) refuseToken(event)
+  const db = useDB()
+  const [companion] = await db.select().from(tables.companions).where(eq(tables.companions.slug, slug)).limit(1)
+  if (!companion || companion.id !== token.companionId) throw createError({ statusCode: 404, statusMessage: 'No companion by that name.' })
+  if (!token.scopes.includes(scope!)) throw createError({ statusCode: 403, statusMessage: `This API token lacks the scope ${scope}.` })
+  const [maker] = await db.select().from(tables.users).where(eq(tables.users.id, token.userId)).limit(1)
+  const [membership] = await db.select({ role: tables.memberships.role }).from(tables.memberships)
+    .where(and(eq(tables.memberships.companionId, companion.id), eq(tables.memberships.userId, token.userId))).limit(1)
+  const role = maker?.siteRole === 'admin' ? 'editor' : membership?.role
+  if (!maker || !role) throw createError({ statusCode: 404, statusMessage: 'No companion by that name.' })
+  if (!roleAtLeast(role, minimum)) throw createError({ statusCode: 403, statusMessage: `The token's maker no longer has the ${minimum} role here.` })
+  const user: User = { id: maker.id, email: maker.email, displayName: maker.displayName, affiliation: maker.affiliation, orcid: maker.orcid, siteRole: maker.siteRole }
+  return { companion, role, membershipRole: membership?.role ?? null, user }
+}
+
 /**
  * The companion and the caller's role, when the role is at least `minimum`.
  * A companion the caller may not see answers 404, so that its existence does not leak.
+ * Routes that accept API tokens name the scope a token needs.
  */
-export async function requireCompanionRole(event: H3Event, slug: string, minimum: CompanionRole): Promise<CompanionAccess> {
+export async function requireCompanionRole(event: H3Event, slug: string, minimum: CompanionRole, options: { tokenScope?: TokenScope } = {}): Promise<CompanionAccess> {
+  if (event.context.token) return tokenAccess(event, slug, minimum, options.tokenScope)
   const access = await findCompanionAccess(event, slug)
   if (!access) throw createError({ statusCode: 404, statusMessage: 'No companion by that name.' })
   if (!roleAtLeast(access.role, minimum)) {

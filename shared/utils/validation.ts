@@ -77,3 +77,9 @@ export function fieldErrors(error: z.ZodError): Record<string, string> {
   }
   return out
 }
+
+export const tokenCreateSchema = z.object({
+  name: z.string().trim().min(1, 'Name the token after the pipeline that uses it.').max(120, 'A name has at most 120 characters.'),
+  scopes: z.array(z.enum(['ensembles:read', 'ensembles:write'], { message: 'Scopes are ensembles:read and ensembles:write.' }))
+    .min(1, 'Choose at least one scope.').max(2),
+})

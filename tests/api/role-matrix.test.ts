@@ -3,7 +3,7 @@
 import { readdirSync, statSync } from 'node:fs'
 import { join, relative } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { ApiClient, makeAdmin, signUp, uniqueName } from '../support/http'
+import { ApiClient, makeAdmin, planeSetting, signUp, uniqueCsv, uniqueName } from '../support/http'
 import type { TestAccount } from '../support/http'
 
 const roles = ['anonymous', 'member', 'reader', 'reviewer', 'author', 'editor', 'admin'] as const
@@ -17,6 +17,9 @@ interface Row {
 
 const accounts = {} as Record<Exclude<Role, 'anonymous'>, TestAccount>
 let slug = ''
+let ensembleId = 0
+let firstRevision = ''
+let lastRevision = ''
 
 function clientFor(as: Role): ApiClient {
   if (as === 'anonymous') return new ApiClient()
@@ -37,10 +40,27 @@ async function throwawayMember(): Promise<TestAccount> {
   return person
 }
 
+/** A fresh ensemble uploaded by the fixture's editor, to be changed or removed. */
+async function throwawayEnsemble(): Promise<number> {
+  const reply = await accounts.editor.client.upload<{ id: number }>(`/api/companions/${slug}/ensembles`, planeSetting('throwaway'), 'throwaway.csv', uniqueCsv())
+  if (reply.status !== 201) throw new Error(`could not upload a throwaway ensemble: ${reply.status} ${JSON.stringify(reply.body)}`)
+  return reply.body.id
+}
+
+/** A token made by the role under test where it may make one, else by the editor. */
+async function tokenToRevoke(as: Role): Promise<number> {
+  const maker = as === 'author' || as === 'editor' || as === 'admin' ? accounts[as] : accounts.editor
+  const reply = await maker.client.post<{ token: { id: number } }>(`/api/companions/${slug}/tokens`, { name: 'to revoke', scopes: ['ensembles:read'] })
+  if (reply.status !== 201) throw new Error(`could not make a token: ${reply.status}`)
+  return reply.body.token.id
+}
+
 const all = (code: number): Record<Role, number> => Object.fromEntries(roles.map(r => [r, code])) as Record<Role, number>
 const signedIn = (code: number) => ({ ...all(code), anonymous: 401 })
 const editorsOnly = (code: number) => ({ anonymous: 404, member: 404, reader: 403, reviewer: 403, author: 403, editor: code, admin: code })
 const adminsOnly = (code: number) => ({ ...all(403), anonymous: 401, admin: code })
+const readers = (code: number) => ({ anonymous: 404, member: 404, reader: code, reviewer: code, author: code, editor: code, admin: code })
+const authors = (code: number) => ({ anonymous: 404, member: 404, reader: 403, reviewer: 403, author: code, editor: code, admin: code })
 
 const rows: Row[] = [
   { route: 'GET /api/health', expect: all(200), call: as => status(as, 'GET', '/api/health') },
@@ -102,6 +122,23 @@ const rows: Row[] = [
     expect: editorsOnly(204),
     call: async as => status(as, 'DELETE', `/api/companions/${slug}/members/${(await throwawayMember()).id}`),
   },
+  { route: 'GET /api/companions/[slug]/ensembles', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/ensembles`) },
+  {
+    route: 'POST /api/companions/[slug]/ensembles',
+    expect: authors(201),
+    call: async as => (await clientFor(as).upload(`/api/companions/${slug}/ensembles`, planeSetting(`by ${as}`), 'matrix.csv', uniqueCsv())).status,
+  },
+  { route: 'GET /api/companions/[slug]/ensembles/[id]', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/ensembles/${ensembleId}`) },
+  { route: 'PATCH /api/companions/[slug]/ensembles/[id]', expect: authors(200), call: as => status(as, 'PATCH', `/api/companions/${slug}/ensembles/${ensembleId}`, { description: `Noted by ${as}` }) },
+  { route: 'DELETE /api/companions/[slug]/ensembles/[id]', expect: authors(200), call: async as => status(as, 'DELETE', `/api/companions/${slug}/ensembles/${await throwawayEnsemble()}`) },
+  { route: 'GET /api/companions/[slug]/revisions', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/revisions`) },
+  { route: 'GET /api/companions/[slug]/revisions/diff', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/revisions/diff?from=${firstRevision}&to=${lastRevision}`) },
+  { route: 'POST /api/companions/[slug]/revisions/[oid]/restore', expect: authors(200), call: as => status(as, 'POST', `/api/companions/${slug}/revisions/${lastRevision}/restore`, {}) },
+  { route: 'GET /api/companions/[slug]/tokens', expect: authors(200), call: as => status(as, 'GET', `/api/companions/${slug}/tokens`) },
+  { route: 'POST /api/companions/[slug]/tokens', expect: authors(201), call: as => status(as, 'POST', `/api/companions/${slug}/tokens`, { name: `made by ${as}`, scopes: ['ensembles:read'] }) },
+  { route: 'DELETE /api/companions/[slug]/tokens/[id]', expect: authors(204), call: async as => status(as, 'DELETE', `/api/companions/${slug}/tokens/${await tokenToRevoke(as)}`) },
+  { route: 'GET /files/[slug]/ensembles/[id]', expect: readers(200), call: as => status(as, 'GET', `/files/${slug}/ensembles/${ensembleId}?format=csv`) },
+  { route: 'GET /files/[slug]/archive', expect: readers(200), call: as => status(as, 'GET', `/files/${slug}/archive`) },
   { route: 'GET /api/admin/users', expect: adminsOnly(200), call: as => status(as, 'GET', '/api/admin/users') },
   {
     route: 'PATCH /api/admin/users/[id]',
@@ -122,6 +159,12 @@ beforeAll(async () => {
     const reply = await accounts.editor.client.post(`/api/companions/${slug}/members`, { email: accounts[role].email, role })
     if (reply.status !== 201) throw new Error(`fixture member ${role} not added: ${reply.status}`)
   }
+  const first = await accounts.editor.client.upload<{ id: number, revision: string }>(`/api/companions/${slug}/ensembles`, planeSetting('fixture'), 'fixture.csv', uniqueCsv())
+  if (first.status !== 201) throw new Error(`fixture ensemble not stored: ${first.status} ${JSON.stringify(first.body)}`)
+  ensembleId = first.body.id
+  firstRevision = first.body.revision
+  const second = await accounts.editor.client.patch<{ revision: string }>(`/api/companions/${slug}/ensembles/${ensembleId}`, { convention: { pairs: 'half', fieldScale: 1, logSign: 'minus-log', gibbs: 'beta' } })
+  lastRevision = second.body.revision
 })
 
 describe('role matrix', () => {
@@ -134,20 +177,23 @@ describe('role matrix', () => {
   }
 })
 
-function routesOnDisk(dir: string, base = dir): string[] {
+function routesOnDisk(dir: string, prefix: string, base = dir): string[] {
   return readdirSync(dir).flatMap((name) => {
     const path = join(dir, name)
-    if (statSync(path).isDirectory()) return routesOnDisk(path, base)
+    if (statSync(path).isDirectory()) return routesOnDisk(path, prefix, base)
     const match = /^(.*)\.(get|post|patch|put|delete)\.ts$/.exec(relative(base, path))
     if (!match) return []
-    const route = `/api/${match[1]}`.replace(/\/index$/, '')
+    const route = `${prefix}/${match[1]}`.replace(/\/index$/, '')
     return [`${match[2]!.toUpperCase()} ${route}`]
   })
 }
 
 describe('role matrix coverage', () => {
-  it('has a row for every route in server/api', () => {
-    const onDisk = routesOnDisk(join(process.cwd(), 'server', 'api')).sort()
+  it('has a row for every route in server/api and server/routes', () => {
+    const onDisk = [
+      ...routesOnDisk(join(process.cwd(), 'server', 'api'), '/api'),
+      ...routesOnDisk(join(process.cwd(), 'server', 'routes'), ''),
+    ].sort()
     expect(onDisk.length).toBeGreaterThan(10)
     expect(rows.map(r => r.route).sort()).toEqual(onDisk)
   })

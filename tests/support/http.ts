@@ -41,6 +41,24 @@ export class ApiClient {
     return { status: response.status, body: parsed as T, headers: response.headers }
   }
 
+  /** Sends a multipart upload (a "setting" JSON part and a "file" part), as the upload form does. */
+  async upload<T = Record<string, unknown>>(path: string, setting: unknown, fileName: string, bytes: Uint8Array | string, options: { bearer?: string } = {}): Promise<Reply<T>> {
+    const form = new FormData()
+    form.append('setting', JSON.stringify(setting))
+    form.append('file', new Blob([typeof bytes === 'string' ? new TextEncoder().encode(bytes) : bytes]), fileName)
+    const headers: Record<string, string> = { 'x-forwarded-for': this.address, 'origin': baseUrl }
+    if (this.cookie) headers.cookie = this.cookie
+    if (options.bearer) headers.authorization = `Bearer ${options.bearer}`
+    const response = await fetch(`${baseUrl}${path}`, { method: 'POST', headers, body: form })
+    const text = await response.text()
+    let parsed: unknown = text
+    try {
+      parsed = text ? JSON.parse(text) : null
+    }
+    catch { /* not JSON */ }
+    return { status: response.status, body: parsed as T, headers: response.headers }
+  }
+
   get<T = Record<string, unknown>>(path: string) {
     return this.request<T>('GET', path)
   }
@@ -92,6 +110,20 @@ export async function withDatabase<T>(fn: (connection: mysql.Connection) => Prom
   finally {
     await connection.end()
   }
+}
+
+/** A setting for 2-D points in free space with V = |x|², in the canonical convention. */
+export function planeSetting(name: string) {
+  return { name, geometry: { kind: 'free', d: 2 }, kernel: { name: 'log' }, potential: 'r^2', beta: 2 }
+}
+
+/** A small CSV of 2-D points, different for every call (so uploads are never duplicates). */
+let csvCounter = 0
+export function uniqueCsv(points = 5): string {
+  const shift = ++csvCounter * 1e-6 + Math.random() * 1e-3
+  const rows = ['x,y']
+  for (let i = 0; i < points; i++) rows.push(`${(Math.cos(i * 2.1) * 0.5 + shift).toPrecision(15)},${(Math.sin(i * 2.1) * 0.5).toPrecision(15)}`)
+  return `${rows.join('\n')}\n`
 }
 
 export async function makeAdmin(account: TestAccount): Promise<void> {

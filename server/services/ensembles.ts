@@ -1,0 +1,298 @@
+// Ensembles: storing an upload atomically (object, rows and manifest commit, or none of them),
+// changing what an ensemble declares, removing it, and rebuilding rows from a restored revision.
+import { createReadStream } from 'node:fs'
+import { resolve } from 'node:path'
+import type { User } from 'lucia'
+import type { CompanionRow } from '#shared/types/db'
+import type { EnsembleSettingInput } from '#shared/utils/ensemble'
+import type { EnsembleSettingRecord } from '../db/schema'
+import type { AppDatabase } from '../utils/db'
+import type { Manifest, ManifestEnsemble } from '../utils/revisions'
+import { parsePotential } from '#shared/physics/potentials/expression'
+import { EngineInputError } from '#shared/physics/errors'
+
+type Transaction = Parameters<Parameters<AppDatabase['transaction']>[0]>[0]
+type Reader = AppDatabase | Transaction
+
+export function repositoryDirectory(companionId: number): string {
+  return resolve(useRuntimeConfig().dataPath, 'repositories', String(companionId))
+}
+
+/** The commit author for an account (git forbids angle brackets and line breaks in names). */
+export function authorOf(user: Pick<User, 'displayName' | 'email'>) {
+  return { name: user.displayName.replace(/[<>\r\n]+/g, ' ').trim() || 'Quillfield member', email: user.email }
+}
+
+/** A revision error as the HTTP answer it stands for. */
+export function revisionProblem(error: unknown): never {
+  if (error instanceof RevisionError) {
+    const status = error.code === 'unknown-revision' || error.code === 'no-repository' ? 404 : error.code.startsWith('invalid') ? 400 : 500
+    throw createError({ statusCode: status, statusMessage: status === 404 ? 'No revision by that id in this companion.' : error.message })
+  }
+  throw error
+}
+
+/** Checks the potential text with the engine's expression parser; a 422 on the field otherwise. */
+export function checkPotential(setting: Pick<EnsembleSettingInput, 'potential' | 'geometry'>): void {
+  if (!setting.potential || setting.geometry.kind !== 'free') return
+  try {
+    parsePotential(setting.potential, { d: setting.geometry.d })
+  }
+  catch (error) {
+    const message = error instanceof EngineInputError ? error.message : 'The potential could not be read.'
+    throw createError({ statusCode: 422, statusMessage: `The potential is not valid: ${message}`, data: { fields: { potential: message } } })
+  }
+}
+
+function settingRecord(input: EnsembleSettingInput): EnsembleSettingRecord {
+  return {
+    geometry: input.geometry,
+    kernel: input.kernel,
+    potential: input.potential ?? null,
+    beta: input.beta ?? null,
+    convention: input.convention,
+    labels: input.labels,
+  }
+}
+
+/** The manifest of a companion as its rows say now. */
+export async function buildManifest(db: Reader, companion: Pick<CompanionRow, 'id' | 'slug' | 'title'>): Promise<Manifest> {
+  const e = tables.ensembles
+  const c = tables.ensembleConfigurations
+  const rows = await db.select().from(e).where(eq(e.companionId, companion.id)).orderBy(asc(e.id))
+  const configurations = rows.length
+    ? await db.select().from(c).where(inArray(c.ensembleId, rows.map(r => r.id))).orderBy(asc(c.ensembleId), asc(c.position))
+    : []
+  const ensembles: ManifestEnsemble[] = rows.map(row => ({
+    id: row.id,
+    name: row.name,
+    description: row.description,
+    fileName: row.fileName,
+    format: row.format,
+    sha256: row.sha256,
+    sizeBytes: row.sizeBytes,
+    objectKey: row.objectKey,
+    geometry: row.setting.geometry,
+    kernel: row.setting.kernel,
+    potential: row.setting.potential,
+    beta: row.setting.beta,
+    convention: row.setting.convention,
+    labels: row.setting.labels,
+    configurations: configurations.filter(x => x.ensembleId === row.id).map(x => ({
+      index: x.position, N: x.n, d: x.d, checksum: x.checksum, labels: x.labels,
+      bbox: x.bbox, minDistance: x.minDistance,
+    })),
+  }))
+  return { format: 'quillfield-manifest', version: 1, companion: { slug: companion.slug, title: companion.title }, ensembles }
+}
+
+/** Runs a change of rows together with its manifest commit: both land, or neither does. */
+export async function commitChange<T>(
+  companion: CompanionRow,
+  user: Pick<User, 'displayName' | 'email'>,
+  change: (tx: Transaction) => Promise<{ result: T, message: string }>,
+): Promise<{ result: T, revision: string }> {
+  const dir = repositoryDirectory(companion.id)
+  const author = authorOf(user)
+  return withRepositoryLock(dir, async () => {
+    await openRepository(dir, { author, companion: { slug: companion.slug, title: companion.title } })
+    const before = await headOid(dir)
+    let committed = false
+    try {
+      return await useDB().transaction(async (tx) => {
+        const { result, message } = await change(tx)
+        const manifest = await buildManifest(tx, companion)
+        const commit = await commitManifest(dir, manifest, { author, message })
+        committed = commit.changed
+        return { result, revision: commit.oid }
+      })
+    }
+    catch (error) {
+      if (committed && before) await resetTo(dir, before)
+      rethrowUnavailable(error, 'The database')
+    }
+  })
+}
+
+interface ParsedUpload {
+  ok: true
+  format: 'text' | 'json' | 'npy' | 'zip'
+  d: number
+  configurations: Array<{ N: number, d: number, bbox: { min: number[], max: number[] }, minDistance: number | null, checksum: string }>
+  labels: Array<Record<string, string | number>>
+  warnings: string[]
+  preview: { d: number, points: number[][] }
+}
+interface RejectedUpload {
+  ok: false
+  error: { message: string, where: Record<string, unknown> }
+}
+
+export async function createEnsemble(companion: CompanionRow, user: Pick<User, 'id' | 'displayName' | 'email'>, upload: ReceivedUpload, setting: EnsembleSettingInput) {
+  checkPotential(setting)
+  const parsed = await useWorkerPool('parse-ensemble').run({ path: upload.path, fileName: upload.fileName, geometry: setting.geometry }) as ParsedUpload | RejectedUpload
+  if (!parsed.ok) {
+    throw createError({ statusCode: 422, statusMessage: parsed.error.message, data: { where: parsed.error.where, fields: { file: parsed.error.message } } })
+  }
+  const db = useDB()
+  const [duplicate] = await db.select({ id: tables.ensembles.id, name: tables.ensembles.name }).from(tables.ensembles)
+    .where(and(eq(tables.ensembles.companionId, companion.id), eq(tables.ensembles.sha256, upload.sha256))).limit(1)
+    .catch(error => rethrowUnavailable(error, 'The database'))
+  if (duplicate) {
+    throw createError({
+      statusCode: 409,
+      statusMessage: `This file is already stored here as ensemble «${duplicate.name}» (same SHA-256).`,
+      data: { existing: duplicate, fields: { file: `Already stored as «${duplicate.name}».` } },
+    })
+  }
+  const objectKey = objectKeyFor(upload.sha256)
+  let createdObject = false
+  try {
+    if (!(await objectExists(objectKey))) {
+      await putObject(objectKey, createReadStream(upload.path))
+      createdObject = true
+    }
+  }
+  catch (error) {
+    storageUnavailable(error)
+  }
+  const pointCount = parsed.configurations.reduce((n, c) => n + c.N, 0)
+  try {
+    const { result: id, revision } = await commitChange(companion, user, async (tx) => {
+      const [row] = await tx.insert(tables.ensembles).values({
+        companionId: companion.id,
+        name: setting.name,
+        description: setting.description,
+        fileName: upload.fileName,
+        format: parsed.format,
+        sha256: upload.sha256,
+        sizeBytes: upload.sizeBytes,
+        objectKey,
+        d: parsed.d,
+        configurationCount: parsed.configurations.length,
+        pointCount,
+        setting: settingRecord(setting),
+        uploadedBy: user.id,
+        revision: '',
+        preview: parsed.preview,
+      }).$returningId()
+      if (!row) throw new Error('the ensemble row was not stored')
+      for (let start = 0; start < parsed.configurations.length; start += 500) {
+        await tx.insert(tables.ensembleConfigurations).values(parsed.configurations.slice(start, start + 500).map((c, k) => ({
+          ensembleId: row.id,
+          position: start + k,
+          n: c.N,
+          d: c.d,
+          checksum: c.checksum,
+          bbox: c.bbox,
+          minDistance: c.minDistance,
+          labels: parsed.labels[start + k] ?? {},
+        })))
+      }
+      return { result: row.id, message: `Add ensemble «${setting.name}»: ${parsed.configurations.length} configuration${parsed.configurations.length === 1 ? '' : 's'} from ${upload.fileName}` }
+    })
+    await db.update(tables.ensembles).set({ revision }).where(eq(tables.ensembles.id, id))
+    return { id, revision, warnings: parsed.warnings, preview: parsed.preview }
+  }
+  catch (error) {
+    if (createdObject) {
+      const [stillUsed] = await db.select({ id: tables.ensembles.id }).from(tables.ensembles).where(eq(tables.ensembles.objectKey, objectKey)).limit(1).catch(() => [{ id: 0 }])
+      if (!stillUsed) await deleteObject(objectKey).catch(() => undefined)
+    }
+    throw error
+  }
+}
+
+export async function listEnsembles(companionId: number) {
+  const e = tables.ensembles
+  return useDB().select({
+    id: e.id, name: e.name, fileName: e.fileName, format: e.format, sha256: e.sha256, sizeBytes: e.sizeBytes,
+    d: e.d, configurationCount: e.configurationCount, pointCount: e.pointCount, setting: e.setting, revision: e.revision,
+    createdAt: e.createdAt, updatedAt: e.updatedAt,
+  }).from(e).where(eq(e.companionId, companionId)).orderBy(asc(e.id))
+}
+
+export async function findEnsemble(companionId: number, id: number) {
+  const [row] = await useDB().select().from(tables.ensembles)
+    .where(and(eq(tables.ensembles.companionId, companionId), eq(tables.ensembles.id, id))).limit(1)
+  if (!row) throw createError({ statusCode: 404, statusMessage: 'No ensemble by that number in this companion.' })
+  return row
+}
+
+export async function ensembleConfigurations(ensembleId: number) {
+  const c = tables.ensembleConfigurations
+  return useDB().select({ position: c.position, n: c.n, d: c.d, checksum: c.checksum, bbox: c.bbox, minDistance: c.minDistance, labels: c.labels })
+    .from(c).where(eq(c.ensembleId, ensembleId)).orderBy(asc(c.position)).limit(10_000)
+}
+
+export async function updateEnsemble(companion: CompanionRow, user: Pick<User, 'displayName' | 'email'>, id: number, patch: Partial<EnsembleSettingRecord> & { name?: string, description?: string }) {
+  const before = await findEnsemble(companion.id, id)
+  const setting: EnsembleSettingRecord = {
+    ...before.setting,
+    ...(patch.potential !== undefined ? { potential: patch.potential } : {}),
+    ...(patch.beta !== undefined ? { beta: patch.beta } : {}),
+    ...(patch.convention !== undefined ? { convention: patch.convention } : {}),
+    ...(patch.labels !== undefined ? { labels: patch.labels } : {}),
+  }
+  checkPotential({ potential: setting.potential, geometry: setting.geometry })
+  const changed = Object.keys(patch).filter(k => (patch as Record<string, unknown>)[k] !== undefined)
+  return commitChange(companion, user, async (tx) => {
+    await tx.update(tables.ensembles).set({
+      setting,
+      ...(patch.name !== undefined ? { name: patch.name } : {}),
+      ...(patch.description !== undefined ? { description: patch.description } : {}),
+    }).where(eq(tables.ensembles.id, id))
+    return { result: id, message: `Change ${changed.join(', ') || 'nothing'} of ensemble «${patch.name ?? before.name}»` }
+  })
+}
+
+export async function removeEnsemble(companion: CompanionRow, user: Pick<User, 'displayName' | 'email'>, id: number) {
+  const before = await findEnsemble(companion.id, id)
+  return commitChange(companion, user, async (tx) => {
+    await tx.delete(tables.ensembles).where(eq(tables.ensembles.id, id))
+    return { result: id, message: `Remove ensemble «${before.name}» (its data stays in earlier revisions)` }
+  })
+}
+
+/** Makes the rows match a restored manifest; objects are content-addressed and never deleted. */
+export async function restoreCompanionRevision(companion: CompanionRow, user: Pick<User, 'id' | 'displayName' | 'email'>, oid: string) {
+  const dir = repositoryDirectory(companion.id)
+  const manifest = await readManifest(dir, oid).catch(revisionProblem)
+  const short = oid.slice(0, 8)
+  return commitChange(companion, user, async (tx) => {
+    await tx.delete(tables.ensembles).where(eq(tables.ensembles.companionId, companion.id))
+    for (const e of manifest.ensembles) {
+      const [row] = await tx.insert(tables.ensembles).values({
+        id: e.id,
+        companionId: companion.id,
+        name: e.name,
+        description: e.description ?? '',
+        fileName: e.fileName,
+        format: e.format,
+        sha256: e.sha256,
+        sizeBytes: e.sizeBytes,
+        objectKey: e.objectKey,
+        d: e.configurations[0]?.d ?? 0,
+        configurationCount: e.configurations.length,
+        pointCount: e.configurations.reduce((n, c) => n + c.N, 0),
+        setting: { geometry: e.geometry, kernel: e.kernel, potential: e.potential, beta: e.beta, convention: e.convention, labels: e.labels } as EnsembleSettingRecord,
+        uploadedBy: user.id,
+        revision: oid,
+      }).$returningId()
+      if (!row) throw new Error('a restored ensemble was not stored')
+      for (let start = 0; start < e.configurations.length; start += 500) {
+        await tx.insert(tables.ensembleConfigurations).values(e.configurations.slice(start, start + 500).map(c => ({
+          ensembleId: row.id,
+          position: c.index,
+          n: c.N,
+          d: c.d,
+          checksum: c.checksum,
+          bbox: (c.bbox ?? { min: [], max: [] }) as { min: number[], max: number[] },
+          minDistance: (c.minDistance ?? null) as number | null,
+          labels: c.labels as Record<string, string | number>,
+        })))
+      }
+    }
+    return { result: manifest.ensembles.length, message: `Restore revision ${short}` }
+  })
+}

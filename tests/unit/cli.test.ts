@@ -1,0 +1,93 @@
+// The engine's command line, run in-process with an in-memory file system.
+import { describe, expect, it } from 'vitest'
+import { runEngine } from '../../cli/engine'
+import type { EngineIO } from '../../cli/command'
+import { EngineInputError } from '../../shared/physics/errors'
+
+function memoryIO(files: Record<string, string>): EngineIO {
+  return {
+    readFile(path) {
+      const text = files[path]
+      if (text === undefined) throw new EngineInputError(`${path}: no such file`, { file: path })
+      return new TextEncoder().encode(text)
+    },
+    writeFile() {},
+  }
+}
+
+async function json(argv: string[], files: Record<string, string>) {
+  const result = await runEngine(argv, memoryIO(files))
+  expect(result.stderr).toBe('')
+  expect(result.code).toBe(0)
+  return JSON.parse(result.stdout)
+}
+
+describe('engine command line', () => {
+  it('lists its commands and documents their options', async () => {
+    const help = await runEngine(['--help'], memoryIO({}))
+    expect(help.code).toBe(0)
+    for (const name of ['energy', 'next-order', 'equilibrium', 'convert']) expect(help.stdout).toContain(name)
+    const one = await runEngine(['energy', '--help'], memoryIO({}))
+    expect(one.stdout).toContain('--input <string>')
+    expect(one.stdout).toContain('--potential <string>')
+  })
+
+  it('computes the energy of two points by hand', async () => {
+    // x = ±1 on the line, V = x²: Σ_{i<j} −log|x_i − x_j| = −log 2, Σ V = 2,
+    // canonical H = 2·(−log 2) + N·Σ V = −2 log 2 + 4 (MATH.md §2).
+    const out = await json(['energy', '--input', 'two.csv', '--potential', 'x^2'], { 'two.csv': 'x\n-1\n1\n' })
+    expect(out.N).toBe(2)
+    expect(out.d).toBe(1)
+    expect(out.pairSum).toBeCloseTo(-Math.log(2), 14)
+    expect(out.confinement).toBeCloseTo(2, 14)
+    expect(out.H).toBeCloseTo(-2 * Math.log(2) + 4, 13)
+    expect(out.engineVersion).toMatch(/^\d+\.\d+\.\d+$/)
+    expect(out.inputSha256).toMatch(/^[0-9a-f]{64}$/)
+    expect(out.convention.canonical).toContain('Σ_{i≠j}')
+  })
+
+  it('converts into the convention asked for', async () => {
+    // ½Σ_{i≠j} with V unscaled: H = −log 2 + 2 for the two points above.
+    const out = await json(['energy', '--input', 'two.csv', '--potential', 'x^2', '--convention', '{"pairs":"half","fieldScale":1,"logSign":"minus-log","gibbs":"beta"}'], { 'two.csv': 'x\n-1\n1\n' })
+    expect(out.Hconv).toBeCloseTo(-Math.log(2) + 2, 13)
+  })
+
+  it('gives the closed-form equilibrium measure of the quadratic potential', async () => {
+    // Semicircle on [−√2, √2] for V = x² (MATH.md §3; Saff & Totik 1997): I_V = ½ log 2 + ¾.
+    const out = await json(['equilibrium', '--dim', '1', '--potential', 'x^2'], {})
+    expect(out.method).toBe('closed-form')
+    expect(out.supportRadius).toBeCloseTo(Math.SQRT2, 14)
+    expect(out.IV).toBeCloseTo(0.5 * Math.log(2) + 0.75, 13)
+  })
+
+  it('reports F_N with a splitting residual at rounding level', async () => {
+    const rows = ['x,y', '0.1,0.2', '-0.5,0.3', '0.4,-0.6', '-0.2,-0.1', '0.7,0.5']
+    const out = await json(['next-order', '--input', 'five.csv', '--preset', 'quadratic', '--eta', 'fixed:0.01'], { 'five.csv': rows.join('\n') })
+    expect(out.N).toBe(5)
+    expect(out.IV).toBeCloseTo(0.75, 14)
+    expect(Math.abs(out.splittingResidual.relative)).toBeLessThan(1e-12)
+    // Balls of radius 0.01 around these points are disjoint, so the lower bound is attained (MATH.md §5).
+    expect(out.electric[0].overlaps).toBe(0)
+    expect(Math.abs(out.electric[0].gap)).toBeLessThan(1e-9)
+  })
+
+  it('names the two coincident points and exits with 1', async () => {
+    const result = await runEngine(['energy', '--input', 'dup.csv', '--potential', 'r^2'], memoryIO({ 'dup.csv': 'x,y\n0,0\n1,1\n0,0\n' }))
+    expect(result.code).toBe(1)
+    expect(result.stderr).toContain('dup.csv, line 4')
+    expect(result.stderr).toContain('points 0 and 2 coincide')
+    expect(result.stderr).toContain('"indices":[0,2]')
+  })
+
+  it('says what is wrong with the command line and exits with 2', async () => {
+    const unknown = await runEngine(['energy', '--inptu', 'x.csv'], memoryIO({}))
+    expect(unknown.code).toBe(2)
+    expect(unknown.stderr).toContain('unknown option --inptu')
+    const missing = await runEngine(['energy'], memoryIO({}))
+    expect(missing.code).toBe(2)
+    expect(missing.stderr).toContain('--input is required')
+    const nofile = await runEngine(['energy', '--input', 'nope.csv'], memoryIO({}))
+    expect(nofile.code).toBe(1)
+    expect(nofile.stderr).toContain('nope.csv: no such file')
+  })
+})
