@@ -7,5 +7,7 @@ import { command as convert } from './convert'
 import { command as verify } from './verify'
 import { command as sample } from './sample'
 import { command as minimize } from './minimize'
+import { command as stats } from './stats'
+import { command as logz } from './logz'
 
-export const commands: EngineCommand[] = [energy, nextOrder, equilibrium, convert, sample, minimize, verify]
+export const commands: EngineCommand[] = [energy, nextOrder, equilibrium, convert, sample, minimize, stats, logz, verify]

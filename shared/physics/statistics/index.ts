@@ -1,0 +1,16 @@
+// Statistics of point configurations over an ensemble, each returned as a table with bootstrap error
+// bars across configurations (see the header of each file for its formula and source).
+export { bootstrap, normalCdf, normalQuantile, quantileSorted, type BootstrapOptions, type BootstrapResult } from './bootstrap'
+export type { StatisticTable, ColumnInfo, ErrorBarOptions, ErrorBarInfo, RejectedConfiguration, ParameterValue } from './table'
+export { bulkWindow, ballVolume, windowVolume, type Window } from './window'
+export { wignerSurmise, equilibriumCdf, unfoldedSpacings, spacingDistribution, type SpacingOptions } from './spacings'
+export { nearestNeighbourDistances, nearestNeighbourDistribution, type NearestNeighbourOptions } from './nearest-neighbour'
+export { pairCorrelation, sphereFractionInBall, type PairCorrelationOptions } from './pair-correlation'
+export { torusStructureFactor, freeStructureFactor, structureFactorAt, type TorusStructureFactorOptions, type FreeStructureFactorOptions } from './structure-factor'
+export { numberVariance, ginibreNumberVariance, scaledBesselI, type NumberVarianceOptions } from './number-variance'
+export { linearStatistic, johanssonVariance, chebyshevCoefficients, integrateAgainst, type LinearStatisticOptions, type TestFunction } from './linear-statistics'
+export { bondOrientationalOrder, localBondOrder, type BondOrderOptions } from './bond-order'
+export { voronoiCellAreas, voronoiAreas, type VoronoiOptions } from './voronoi'
+export { tessellate, type PlanarTessellation } from './delaunay'
+export { empiricalDensity, type DensityOptions } from './density'
+export { buildCellList, forEachNeighbour, countWithin, type CellList } from './cell-list'
