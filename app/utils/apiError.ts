@@ -15,7 +15,8 @@ interface ErrorShape {
 export function apiProblem(error: unknown): ApiProblem {
   const e = (error ?? {}) as ErrorShape
   const status = e.statusCode ?? e.status ?? 0
-  const message = e.data?.statusMessage ?? e.data?.message ?? e.statusMessage
+  // `message` keeps the full text; `statusMessage` has had non-ASCII characters removed (HTTP status lines are ASCII).
+  const message = e.data?.message ?? e.data?.statusMessage ?? e.statusMessage
     ?? (status === 0 ? 'The server could not be reached. Check your connection and try again.' : 'The request failed.')
   return { message, fields: e.data?.data?.fields ?? {}, status }
 }

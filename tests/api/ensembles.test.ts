@@ -42,9 +42,10 @@ describe('uploading ensembles', () => {
     const csv = uniqueCsv()
     const first = await author.client.upload(`/api/companions/${slug}/ensembles`, planeSetting('original'), 'a.csv', csv)
     expect(first.status).toBe(201)
-    const again = await author.client.upload<{ statusMessage: string }>(`/api/companions/${slug}/ensembles`, planeSetting('copy'), 'b.csv', csv)
+    const again = await author.client.upload<{ message: string }>(`/api/companions/${slug}/ensembles`, planeSetting('copy'), 'b.csv', csv)
     expect(again.status).toBe(409)
-    expect(again.body.statusMessage).toContain('already stored')
+    // The full text (with its non-ASCII quotes) is in `message`; the HTTP status line carries only ASCII.
+    expect(again.body.message).toContain('already stored here as ensemble «original»')
   })
 
   it('refuses a setting that does not hold together, field by field', async () => {
