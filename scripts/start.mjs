@@ -3,7 +3,7 @@ import { spawn } from 'node:child_process'
 import { join } from 'node:path'
 import { app, databaseUrl, root, serviceEnvironment } from './lib/config.mjs'
 import { startServices } from './lib/services.mjs'
-import { log, runOrThrow } from './lib/run.mjs'
+import { log, runOrThrow, waitForHealth } from './lib/run.mjs'
 import { ensureDependencies, npxBin } from './lib/setup.mjs'
 
 async function main() {
@@ -25,20 +25,29 @@ async function main() {
     env: { ...env, HOST: app.host, PORT: String(app.port), NITRO_HOST: app.host, NITRO_PORT: String(app.port) },
   })
   const address = `http://${app.host}:${app.port}`
-  setTimeout(async () => {
-    const { demoAccounts } = demo ? await import('./demo-data.mjs') : { demoAccounts: [] }
-    const lines = [
-      '',
-      `Quillfield is serving on ${address}`,
-      ...(demo
-        ? ['', 'Demo accounts (demo seed only; never in production):', ...demoAccounts.map(a => `  ${a.email.padEnd(32)} ${a.password.padEnd(22)} ${a.part}`)]
-        : []),
-      '',
-      'Ctrl-C stops the application; `npm run services:stop` stops MariaDB and the object store.',
-      '',
-    ]
-    process.stdout.write(lines.join('\n'))
-  }, 1500)
+  try {
+    if (!(await waitForHealth(address, server))) throw new Error(`the application did not become healthy on ${address}`)
+    if (demo) {
+      log('adding the demo ensembles (made by the engine\'s samplers from fixed seeds)')
+      await runOrThrow(npxBin('tsx'), [join(root, 'scripts', 'seed-ensembles.ts'), address], { cwd: root, env })
+    }
+  }
+  catch (error) {
+    server.kill('SIGTERM')
+    throw error
+  }
+  const { demoAccounts } = demo ? await import('./demo-data.mjs') : { demoAccounts: [] }
+  const lines = [
+    '',
+    `Quillfield is serving on ${address}`,
+    ...(demo
+      ? ['', 'Demo accounts (demo seed only; never in production):', ...demoAccounts.map(a => `  ${a.email.padEnd(32)} ${a.password.padEnd(22)} ${a.part}`)]
+      : []),
+    '',
+    'Ctrl-C stops the application; `npm run services:stop` stops MariaDB and the object store.',
+    '',
+  ]
+  process.stdout.write(lines.join('\n'))
   const stop = () => server.kill('SIGTERM')
   process.on('SIGINT', stop)
   process.on('SIGTERM', stop)

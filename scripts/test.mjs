@@ -8,7 +8,7 @@ import { app, databaseUrl, dataDir, db, objectStore, root, serviceEnvironment } 
 import { emptyBucket } from './lib/objectstore.mjs'
 import { recreateDatabase } from './lib/mariadb.mjs'
 import { startServices, stopServices } from './lib/services.mjs'
-import { ensureDebianPackages, log, run, sleep, which } from './lib/run.mjs'
+import { ensureDebianPackages, log, run, sleep, waitForHealth, which } from './lib/run.mjs'
 import { ensureDependencies, npxBin } from './lib/setup.mjs'
 
 const artifacts = join(root, 'tests', '.artifacts')
@@ -45,19 +45,6 @@ async function step(name, command, args, env) {
   const code = await run(command, args, { cwd: root, env })
   record(name, code === 0, code === 0 ? '' : `exit ${code}`)
   return code === 0
-}
-
-async function waitForHealth(url, child) {
-  for (let i = 0; i < 300; i++) {
-    if (child.exitCode !== null) return false
-    try {
-      const response = await fetch(`${url}/api/health`)
-      if (response.ok) return true
-    }
-    catch { /* not up yet */ }
-    await sleep(100)
-  }
-  return false
 }
 
 async function main() {

@@ -59,3 +59,17 @@ export function processAlive(pid) {
     return false
   }
 }
+
+/** Waits until GET <url>/api/health answers 200, or the process exits; false when it never did. */
+export async function waitForHealth(url, child, tries = 300) {
+  for (let i = 0; i < tries; i++) {
+    if (child.exitCode !== null) return false
+    try {
+      const response = await fetch(`${url}/api/health`)
+      if (response.ok) return true
+    }
+    catch { /* not up yet */ }
+    await sleep(100)
+  }
+  return false
+}
