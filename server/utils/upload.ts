@@ -98,9 +98,5 @@ export async function receiveUpload(event: H3Event): Promise<ReceivedUpload> {
     await discard()
     throw createError({ statusCode: 422, statusMessage: 'The upload has no file.', data: { fields: { file: 'Choose a file to upload.' } } })
   }
-  if (sizeBytes === 0) {
-    await discard()
-    throw createError({ statusCode: 422, statusMessage: `${fileName} is empty.`, data: { fields: { file: `${fileName} is empty.` } } })
-  }
   return { path, fileName, sha256, sizeBytes, fields, discard }
 }
