@@ -5,7 +5,7 @@ export default defineEventHandler(async (event) => {
   event.context.session = null
   event.context.token = null
   if (!event.path.startsWith('/api/') && !event.path.startsWith('/files/')) return
-  const token = await tokenFromRequest(event)
+  const token = await tokenFromRequest(event).catch(error => rethrowUnavailable(error, 'The database'))
   if (token) {
     event.context.token = token
     return
@@ -13,7 +13,7 @@ export default defineEventHandler(async (event) => {
   const auth = useLucia()
   const sessionId = getCookie(event, auth.sessionCookieName)
   if (!sessionId) return
-  const { session, user } = await auth.validateSession(sessionId)
+  const { session, user } = await auth.validateSession(sessionId).catch(error => rethrowUnavailable(error, 'The database'))
   if (session?.fresh) appendResponseHeader(event, 'Set-Cookie', auth.createSessionCookie(session.id).serialize())
   if (!session) appendResponseHeader(event, 'Set-Cookie', auth.createBlankSessionCookie().serialize())
   event.context.session = session

@@ -32,6 +32,10 @@ export interface CompanionAccess {
 
 /** What the caller may do in a companion, or null when they may not see it at all. */
 export async function findCompanionAccess(event: H3Event, slug: string): Promise<CompanionAccess | null> {
+  return lookUpAccess(event, slug).catch(error => rethrowUnavailable(error, 'The database'))
+}
+
+async function lookUpAccess(event: H3Event, slug: string): Promise<CompanionAccess | null> {
   const db = useDB()
   const user = event.context.user
   const [companion] = await db.select().from(tables.companions).where(eq(tables.companions.slug, slug)).limit(1)

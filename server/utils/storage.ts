@@ -30,7 +30,7 @@ export function objectKeyFor(sha256: string): string {
 /** Turns a storage failure into a clear 503 for the person, nothing half-done behind it. */
 export function storageUnavailable(error: unknown): never {
   const reason = error instanceof Error ? error.message : String(error)
-  throw createError({ statusCode: 503, statusMessage: 'Object storage is not answering; nothing was stored. Try again in a moment.', data: { reason } })
+  throw createError({ statusCode: 503, statusMessage: 'Object storage is not answering; nothing was changed. Try again in a moment.', data: { reason } })
 }
 
 export async function storageReachable(): Promise<boolean> {

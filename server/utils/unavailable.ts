@@ -13,7 +13,7 @@ export function isConnectionFailure(error: unknown): boolean {
 
 export function rethrowUnavailable(error: unknown, what: string): never {
   if (isConnectionFailure(error)) {
-    throw createError({ statusCode: 503, statusMessage: `${what} is not answering; nothing was stored. Try again in a moment.` })
+    throw createError({ statusCode: 503, statusMessage: `${what} is not answering; nothing was changed. Try again in a moment.` })
   }
   throw error
 }
