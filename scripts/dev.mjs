@@ -4,9 +4,10 @@ import { app, databaseUrl, dataDir, root, serviceEnvironment } from './lib/confi
 import { buildWorkers } from './lib/workers.mjs'
 import { startServices } from './lib/services.mjs'
 import { run } from './lib/run.mjs'
-import { ensureDependencies, npxBin } from './lib/setup.mjs'
+import { ensureDependencies, ensureWasm, npxBin } from './lib/setup.mjs'
 
 await ensureDependencies()
+await ensureWasm()
 await startServices()
 const { applyMigrations } = await import('./migrate.mjs')
 await applyMigrations(databaseUrl())

@@ -9,7 +9,7 @@ import { emptyBucket } from './lib/objectstore.mjs'
 import { recreateDatabase } from './lib/mariadb.mjs'
 import { startServices, stopServices } from './lib/services.mjs'
 import { ensureDebianPackages, log, run, sleep, waitForHealth, which } from './lib/run.mjs'
-import { ensureDependencies, npxBin } from './lib/setup.mjs'
+import { ensureDependencies, ensureWasm, npxBin } from './lib/setup.mjs'
 
 const artifacts = join(root, 'tests', '.artifacts')
 const results = []
@@ -50,6 +50,7 @@ async function step(name, command, args, env) {
 async function main() {
   mkdirSync(artifacts, { recursive: true })
   await ensureDependencies()
+  await ensureWasm()
   if (!existsSync('/usr/bin/chromium') && !which('chromium')) await ensureDebianPackages(['chromium'], 'The browser tests (Chromium)')
   const started = await startServices()
   let server

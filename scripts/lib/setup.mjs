@@ -16,3 +16,12 @@ export async function ensureDependencies() {
 export function npxBin(name) {
   return join(root, 'node_modules', '.bin', name)
 }
+
+/** Compiles the SIMD pair kernels when their generated module is missing or older than the source. */
+export async function ensureWasm() {
+  const generated = join(root, 'shared', 'physics', 'fast', 'pairs-wasm.ts')
+  const source = join(root, 'native', 'pairs.ts')
+  if (existsSync(generated) && statSync(generated).mtimeMs >= statSync(source).mtimeMs) return
+  log('compiling the WebAssembly pair kernels (AssemblyScript)')
+  await runOrThrow(process.execPath, [join(root, 'scripts', 'build-wasm.mjs')], { cwd: root })
+}

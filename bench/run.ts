@@ -1,0 +1,126 @@
+// Benchmarks of the pair sums, printed as ratios measured in the same run:
+//   1. direct sums: plain TypeScript loop vs SIMD WebAssembly (one thread, and the worker pool)
+//   2. the 2-D log FMM vs the fastest direct sum at N = 1e4 and 1e5 (1e6 with --large), with the
+//      measured relative error
+//   3. the 3-D Coulomb tree code vs the direct sum (information)
+//   4. a NumPy/SciPy peer (scipy.spatial.distance.pdist), when python3 has numpy and scipy
+// Usage: npx tsx bench/run.ts [--large]
+import { execFileSync } from 'node:child_process'
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { pairSum, pairSumNaive } from '../shared/physics/energy'
+import { fmm2dEnergy } from '../shared/physics/fast/fmm2d'
+import { treecodeEnergy } from '../shared/physics/fast/treecode'
+import { PairKernels, wasmPairSum } from '../shared/physics/fast/wasm'
+import { PairPool } from '../server/engine/pool'
+
+const large = process.argv.includes('--large')
+
+function uniform(N: number, d: number, seed: number): Float64Array {
+  let a = seed >>> 0
+  const p = new Float64Array(N * d)
+  for (let k = 0; k < p.length; k++) {
+    a = (a + 0x6D2B79F5) >>> 0
+    let t = a
+    t = Math.imul(t ^ (t >>> 15), t | 1)
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
+    p[k] = ((t ^ (t >>> 14)) >>> 0) / 4294967296
+  }
+  return p
+}
+
+function timed<T>(f: () => T): [T, number] {
+  const t = performance.now()
+  const v = f()
+  return [v, (performance.now() - t) / 1000]
+}
+
+async function timedAsync<T>(f: () => Promise<T>): Promise<[T, number]> {
+  const t = performance.now()
+  const v = await f()
+  return [v, (performance.now() - t) / 1000]
+}
+
+const fmt = (x: number): string => x.toExponential(3)
+const free2 = { kind: 'free', d: 2 } as const
+const free3 = { kind: 'free', d: 3 } as const
+
+async function main(): Promise<void> {
+  const pool = new PairPool({ threads: 2 })
+  console.log(`pool: ${pool.threads} worker threads${pool.fallback ? ` (fallback: ${pool.fallback})` : ''}\n`)
+
+  console.log('1. direct pair sums, pairs per second')
+  for (const [label, d, kernel, geometry] of [
+    ['log, d = 2', 2, { name: 'log' }, free2],
+    ['coulomb, d = 3', 3, { name: 'coulomb' }, free3],
+  ] as const) {
+    const N = 20000
+    const points = uniform(N, d, 1)
+    const pairs = (N * (N - 1)) / 2
+    const conf = { N, d, points }
+    const [naive, tNaive] = timed(() => pairSumNaive(conf, kernel, geometry))
+    const [ts, tTs] = timed(() => pairSum(conf, kernel, geometry))
+    const kernels = new PairKernels()
+    wasmPairSum(points, d, kernel, geometry, kernels)
+    const [w1, tW1] = timed(() => wasmPairSum(points, d, kernel, geometry, kernels))
+    await pool.pairSum(points, d, kernel, geometry)
+    const [w2, tW2] = await timedAsync(() => pool.pairSum(points, d, kernel, geometry))
+    console.log(`  ${label}, N = ${N}:`)
+    console.log(`    plain TS loop (pairSumNaive)     ${fmt(pairs / tNaive)}`)
+    console.log(`    TS compensated (pairSum)         ${fmt(pairs / tTs)}`)
+    console.log(`    WASM SIMD, 1 thread              ${fmt(pairs / tW1)}   ratio to plain TS ${(tNaive / tW1).toFixed(1)}×`)
+    console.log(`    WASM SIMD, ${w2.threads} worker threads       ${fmt(pairs / tW2)}   ratio to plain TS ${(tNaive / tW2).toFixed(1)}×`)
+    console.log(`    agreement: |wasm − ts|/|ts| = ${fmt(Math.abs(w1 - ts) / Math.abs(ts))}, naive ${fmt(Math.abs(naive - ts) / Math.abs(ts))}, pool = 1 thread: ${w2.value === w1}`)
+  }
+
+  console.log('\n2. 2-D log FMM vs direct SIMD (worker pool), tolerance 1e−10')
+  for (const N of large ? [10000, 100000, 1000000] : [10000, 100000]) {
+    const points = uniform(N, 2, 2)
+    const [direct, tD] = await timedAsync(() => pool.pairSum(points, 2, { name: 'log' }, free2))
+    const [fmm, tF] = timed(() => fmm2dEnergy(points, { tolerance: 1e-10 }))
+    const err = Math.abs(fmm.value - direct.value) / Math.abs(direct.value)
+    console.log(`  N = ${N}: direct ${tD.toFixed(3)} s, FMM ${tF.toFixed(3)} s (p = ${fmm.parameters.order}), speed-up ${(tD / tF).toFixed(2)}×, measured error ${fmt(err)}, bound ${fmt(fmm.errorBound)}`)
+  }
+
+  console.log('\n3. 3-D Coulomb tree code vs direct SIMD (worker pool), tolerance 1e−4')
+  {
+    const N = 20000
+    const points = uniform(N, 3, 3)
+    const [direct, tD] = await timedAsync(() => pool.pairSum(points, 3, { name: 'coulomb' }, free3))
+    const [tc, tT] = timed(() => treecodeEnergy(points, 3, { name: 'coulomb' }, free3, { tolerance: 1e-4 }))
+    console.log(`  N = ${N}: direct ${tD.toFixed(3)} s, tree code ${tT.toFixed(3)} s (p = ${tc.parameters.order}), ratio ${(tD / tT).toFixed(3)}×, measured error ${fmt(Math.abs(tc.value - direct.value) / direct.value)}, bound ${fmt(tc.errorBound)}`)
+  }
+
+  console.log('\n4. NumPy/SciPy peer (pdist), log kernel, d = 2')
+  let havePy = true
+  try {
+    execFileSync('python3', ['-c', 'import numpy, scipy'], { stdio: 'ignore' })
+  }
+  catch {
+    havePy = false
+  }
+  if (!havePy) {
+    console.log('  skipped: python3 with numpy and scipy is not available (python3 -c "import numpy, scipy" failed)')
+  }
+  else {
+    const N = 8000
+    const points = uniform(N, 2, 4)
+    const dir = mkdtempSync(join(tmpdir(), 'quillfield-bench-'))
+    try {
+      const file = join(dir, 'points.f64')
+      writeFileSync(file, new Uint8Array(points.buffer))
+      const out = JSON.parse(execFileSync('python3', [join(import.meta.dirname, 'peer_pairs.py'), file, String(N), '2'], { encoding: 'utf8' })) as { value: number, pairsPerSecond: number }
+      await pool.pairSum(points, 2, { name: 'log' }, free2)
+      const [w, tW] = await timedAsync(() => pool.pairSum(points, 2, { name: 'log' }, free2))
+      const pairs = (N * (N - 1)) / 2
+      console.log(`  N = ${N}: SciPy ${fmt(out.pairsPerSecond)} pairs/s, WASM pool ${fmt(pairs / tW)} pairs/s, ratio ${((pairs / tW) / out.pairsPerSecond).toFixed(1)}×, |Δ|/|E| = ${fmt(Math.abs(out.value - w.value) / Math.abs(w.value))}`)
+    }
+    finally {
+      rmSync(dir, { recursive: true, force: true })
+    }
+  }
+  await pool.close()
+}
+
+await main()

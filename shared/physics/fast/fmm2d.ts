@@ -1,0 +1,551 @@
+// Fast multipole method for the 2-D logarithmic kernel g(x) = −log|x| (Greengard & Rokhlin, "A fast
+// algorithm for particle simulations", J. Comput. Phys. 73, 1987, §2; Greengard, The Rapid Evaluation
+// of Potential Fields in Particle Systems, MIT Press, 1988). With z = x + iy and Φ(z) = Σ_j log(z − z_j)
+// the potential is φ = −Re Φ and the force −∇φ = (Re Φ′, −Im Φ′). Expansions (scaled by the cube's
+// half-width R, w = (z − c)/R):
+//   multipole  Φ(z) ≈ a₀ log(z − c) + Σ_{k=1}^{p} ã_k (R/(z − c))^k,  a₀ = n,  ã_k = −Σ_j w_j^k / k
+//   local      Φ(z) ≈ Σ_{l=0}^{p} b̃_l w^l
+//   M2M, M2L, L2L: Lemmas 2.3, 2.4 and 2.5 of Greengard & Rokhlin (1987), rewritten for scaled
+//   coefficients; L2L by repeated synthetic division (Horner shift).
+// Error bound (derived as in Lemma 2.1 there): for a far pair of nodes with radii r_A, r_B about their
+// centres and distance D = |c_A − c_B|, the p-term M2L gives every point pair an error at most
+//   ε(θ, p) = Σ_{n>p} θ^n / n ≤ θ^{p+1} / ((p + 1)(1 − θ)),   θ = (r_A + r_B)/D,
+// i.e. (1/((p + 1)(c − 1)))·c^(−p) with separation ratio c = 1/θ, the Greengard–Rokhlin form.
+// The energy error is at most B(p) = Σ_{far pairs} n_A n_B θ_AB^(p+1)/((p + 1)(1 − θ_AB)) (≥ the sum of
+// the ε), computed for the actual tree;
+// p is the smallest order with B(p) ≤ tolerance·L, L a lower bound of |E| from the exact near field and
+// the monopole far field. Forces: per point pair the error is at most (1/D) Σ_{n>p} θ^(n−1), so
+// relative to Σ_j 1/|x_i − x_j| it is at most (1 + θ) θ^p / (1 − θ).
+import { EngineInputError } from '../errors'
+import { CompensatedSum } from '../summation'
+import { ENGINE_VERSION } from '../version'
+import type { InteractionLists, PointTree } from './quadtree'
+import { buildTree, interactionLists } from './quadtree'
+import { PairKernels, wasmSimdAvailable } from './wasm'
+
+export interface FmmOptions {
+  /** Requested relative error of the energy (default 1e−10). */
+  readonly tolerance?: number
+  /** Fixed expansion order p (overrides the tolerance). */
+  readonly order?: number
+  /** At most this many points per leaf (default 128). */
+  readonly leafSize?: number
+  /** Opening parameter θ in (0, 1): far when (r_A + r_B) ≤ θ·D (default 0.6). */
+  readonly theta?: number
+}
+
+export interface FmmParameters {
+  readonly order: number
+  readonly leafSize: number
+  readonly theta: number
+  readonly nodes: number
+  readonly farPairs: number
+  readonly nearPairs: number
+}
+
+export interface FmmEnergyResult {
+  /** Σ_{i<j} −log|x_i − x_j|. */
+  readonly value: number
+  /** Rigorous bound of |value − exact| from the truncation (rounding not included). */
+  readonly absoluteErrorBound: number
+  /** absoluteErrorBound / |value|. */
+  readonly errorBound: number
+  readonly parameters: FmmParameters
+  readonly engineVersion: string
+}
+
+export interface FmmFieldsResult {
+  /** φ_i = Σ_{j≠i} −log|x_i − x_j|. */
+  readonly potential: Float64Array
+  /** F_i = Σ_{j≠i} (x_i − x_j)/|x_i − x_j|², two numbers per point. */
+  readonly force: Float64Array
+  /** Bound of the error of φ_i per far point pair, ε(θ, p). */
+  readonly pairErrorBound: number
+  /** Bound of the force error relative to Σ_j 1/|x_i − x_j|. */
+  readonly forceErrorBound: number
+  readonly parameters: FmmParameters
+  readonly engineVersion: string
+}
+
+const MAX_ORDER = 60
+
+/** ε(θ, p) = Σ_{n>p} θ^n / n, the per-pair truncation bound. */
+export function logTail(theta: number, p: number): number {
+  let term = Math.pow(theta, p + 1)
+  let s = 0
+  for (let n = p + 1; n < p + 2000 && term > 1e-40 * s; n++) {
+    s += term / n
+    term *= theta
+  }
+  return s
+}
+
+function checkOptions(points: Float64Array, options: FmmOptions): { tol: number, leaf: number, theta: number } {
+  if (points.length % 2 !== 0) throw new EngineInputError(`the coordinate array has ${points.length} numbers, not a multiple of 2`)
+  for (let k = 0; k < points.length; k++) {
+    if (!Number.isFinite(points[k])) throw new EngineInputError(`point ${Math.floor(k / 2)} has a coordinate that is not a finite number (${points[k]})`, { index: Math.floor(k / 2) })
+  }
+  const tol = options.tolerance ?? 1e-10
+  const leaf = options.leafSize ?? 128
+  const theta = options.theta ?? 0.6
+  if (!(tol > 0 && tol < 1)) throw new EngineInputError(`the tolerance must be in (0, 1) (got ${tol})`)
+  if (!(theta > 0 && theta < 1)) throw new EngineInputError(`the opening parameter θ must be in (0, 1) (got ${theta})`)
+  if (options.order !== undefined && !(Number.isInteger(options.order) && options.order >= 1 && options.order <= MAX_ORDER)) {
+    throw new EngineInputError(`the expansion order must be an integer in [1, ${MAX_ORDER}] (got ${options.order})`)
+  }
+  return { tol, leaf, theta }
+}
+
+/** Binomial table C[n][k] for n ≤ 2p. */
+function binomials(p: number): Float64Array[] {
+  const rows: Float64Array[] = []
+  for (let n = 0; n <= 2 * p + 1; n++) {
+    const r = new Float64Array(n + 1)
+    r[0] = 1
+    r[n] = 1
+    for (let k = 1; k < n; k++) r[k] = rows[n - 1][k - 1] + rows[n - 1][k]
+    rows.push(r)
+  }
+  return rows
+}
+
+function coincident(tree: PointTree, a: number, b: number): never {
+  const i = Math.min(tree.perm[a], tree.perm[b])
+  const j = Math.max(tree.perm[a], tree.perm[b])
+  throw new EngineInputError(`points ${i} and ${j} coincide; the interaction energy is infinite`, { indices: [i, j] })
+}
+
+/** Σ log|x_i − x_j|² over the leaf pairs (a, b), by products of squared distances (one logarithm per
+ *  product leaving [1e−150, 1e150]); with the SIMD kernels when they can be used. */
+function nearLogSum(tree: PointTree, A: number[], B: number[], kernels: PairKernels | undefined): number {
+  const P = tree.sorted
+  const total = new CompensatedSum()
+  if (kernels) {
+    for (let q = 0; q < A.length; q++) {
+      const a = A[q]
+      const b = B[q]
+      const v = kernels.blockLog2(tree.start[a], tree.end[a], tree.start[b], tree.end[b])
+      if (Number.isNaN(v)) {
+        const pair = kernels.coincidence()
+        if (pair) coincident(tree, pair[0], pair[1])
+      }
+      total.add(v)
+    }
+    return total.value
+  }
+  for (let q = 0; q < A.length; q++) {
+    const a = A[q]
+    const b = B[q]
+    const logs = new CompensatedSum()
+    let prod = 1
+    for (let i = tree.start[a]; i < tree.end[a]; i++) {
+      const xi = P[2 * i]
+      const yi = P[2 * i + 1]
+      for (let j = a === b ? i + 1 : tree.start[b]; j < tree.end[b]; j++) {
+        const dx = xi - P[2 * j]
+        const dy = yi - P[2 * j + 1]
+        const r2 = dx * dx + dy * dy
+        if (r2 < 1e-150 || r2 > 1e150) {
+          if (r2 === 0) coincident(tree, i, j)
+          logs.add(Math.log(r2))
+          continue
+        }
+        prod *= r2
+        if (prod < 1e-150 || prod > 1e150) {
+          logs.add(Math.log(prod))
+          prod = 1
+        }
+      }
+    }
+    if (prod !== 1) logs.add(Math.log(prod))
+    total.addSum(logs)
+  }
+  return total.value
+}
+
+/** The SIMD kernels holding the sorted points, or undefined (no WebAssembly, or huge coordinates). */
+function nearKernels(tree: PointTree): PairKernels | undefined {
+  let m = 0
+  for (let k = 0; k < tree.sorted.length; k++) m = Math.max(m, Math.abs(tree.sorted[k]))
+  if (!(m < 1e34) || !wasmSimdAvailable()) return undefined
+  const kernels = new PairKernels()
+  kernels.load(tree.sorted, 2)
+  return kernels
+}
+
+/** Multipole coefficients ã_k (k = 1..p) of every node, re/im interleaved per node, p + 1 slots. */
+function upwardPass(tree: PointTree, p: number, C: Float64Array[]): { re: Float64Array, im: Float64Array } {
+  const M = tree.start.length
+  const re = new Float64Array(M * (p + 1))
+  const im = new Float64Array(M * (p + 1))
+  const P = tree.sorted
+  for (let node = M - 1; node >= 0; node--) {
+    const o = node * (p + 1)
+    const cx = tree.centre[2 * node]
+    const cy = tree.centre[2 * node + 1]
+    const R = tree.half[node]
+    re[o] = tree.end[node] - tree.start[node]
+    const ch = tree.children[node]
+    if (ch.length === 0) {
+      for (let j = tree.start[node]; j < tree.end[node]; j++) {
+        const wx = (P[2 * j] - cx) / R
+        const wy = (P[2 * j + 1] - cy) / R
+        let tr = 1
+        let ti = 0
+        for (let k = 1; k <= p; k++) {
+          const nr = tr * wx - ti * wy
+          ti = tr * wy + ti * wx
+          tr = nr
+          re[o + k] -= tr / k
+          im[o + k] -= ti / k
+        }
+      }
+      continue
+    }
+    // M2M: b̃_l = −a₀ t^l / l + Σ_{k=1}^{l} ã_k ρ^k t^(l−k) C(l−1, k−1),  t = (c_child − c)/R, ρ = R_child/R
+    const tp = new Float64Array(2 * (p + 1))
+    for (const c of ch) {
+      const oc = c * (p + 1)
+      const tx = (tree.centre[2 * c] - cx) / R
+      const ty = (tree.centre[2 * c + 1] - cy) / R
+      const rho = tree.half[c] / R
+      tp[0] = 1
+      tp[1] = 0
+      for (let l = 1; l <= p; l++) {
+        tp[2 * l] = tp[2 * l - 2] * tx - tp[2 * l - 1] * ty
+        tp[2 * l + 1] = tp[2 * l - 2] * ty + tp[2 * l - 1] * tx
+      }
+      const a0 = re[oc]
+      let rk = 1
+      const sr = new Float64Array(p + 1)
+      const si = new Float64Array(p + 1)
+      for (let k = 1; k <= p; k++) {
+        rk *= rho
+        sr[k] = re[oc + k] * rk
+        si[k] = im[oc + k] * rk
+      }
+      for (let l = 1; l <= p; l++) {
+        let ar = -a0 * tp[2 * l] / l
+        let ai = -a0 * tp[2 * l + 1] / l
+        const Cl = C[l - 1]
+        for (let k = 1; k <= l; k++) {
+          const b = Cl[k - 1]
+          const xr = tp[2 * (l - k)]
+          const xi = tp[2 * (l - k) + 1]
+          ar += b * (sr[k] * xr - si[k] * xi)
+          ai += b * (sr[k] * xi + si[k] * xr)
+        }
+        re[o + l] += ar
+        im[o + l] += ai
+      }
+    }
+  }
+  return { re, im }
+}
+
+/** M2L from node a into node b: adds b̃_l (l = 0..p) to the local arrays at offset ob. */
+function m2l(tree: PointTree, p: number, T: Float64Array, mre: Float64Array, mim: Float64Array, a: number, b: number, out: Float64Array, scratch: Float64Array): void {
+  const oa = a * (p + 1)
+  const zx = tree.centre[2 * a] - tree.centre[2 * b]
+  const zy = tree.centre[2 * a + 1] - tree.centre[2 * b + 1]
+  const z2 = zx * zx + zy * zy
+  // u = −R_a/z0, v = R_b/z0
+  const ia = tree.half[a] / z2
+  const ur = -ia * zx
+  const ui = ia * zy
+  const ib = tree.half[b] / z2
+  const vr = ib * zx
+  const vi = -ib * zy
+  // α_k = ã_k u^k
+  let pr = 1
+  let pi = 0
+  let s0r = 0.5 * Math.log(z2) * mre[oa]
+  let s0i = Math.atan2(-zy, -zx) * mre[oa]
+  for (let k = 1; k <= p; k++) {
+    const nr = pr * ur - pi * ui
+    pi = pr * ui + pi * ur
+    pr = nr
+    const ar = mre[oa + k] * pr - mim[oa + k] * pi
+    const ai = mre[oa + k] * pi + mim[oa + k] * pr
+    scratch[2 * k] = ar
+    scratch[2 * k + 1] = ai
+    s0r += ar
+    s0i += ai
+  }
+  out[0] += s0r
+  out[1] += s0i
+  const a0 = mre[oa]
+  let qr = 1
+  let qi = 0
+  for (let l = 1; l <= p; l++) {
+    const nr = qr * vr - qi * vi
+    qi = qr * vi + qi * vr
+    qr = nr
+    let sr = -a0 / l
+    let si = 0
+    const row = l * (p + 1)
+    for (let k = 1; k <= p; k++) {
+      const c = T[row + k]
+      sr += c * scratch[2 * k]
+      si += c * scratch[2 * k + 1]
+    }
+    out[2 * l] += sr * qr - si * qi
+    out[2 * l + 1] += sr * qi + si * qr
+  }
+}
+
+/** T[l(p + 1) + k] = C(l + k − 1, k − 1), the fixed M2L matrix of the scaled coefficients. */
+function m2lTable(p: number, C: Float64Array[]): Float64Array {
+  const T = new Float64Array((p + 1) * (p + 1))
+  for (let l = 1; l <= p; l++) {
+    for (let k = 1; k <= p; k++) T[l * (p + 1) + k] = C[l + k - 1][k - 1]
+  }
+  return T
+}
+
+interface Prepared {
+  tree: PointTree
+  lists: InteractionLists
+  leaf: number
+  theta: number
+}
+
+function prepare(points: Float64Array, options: FmmOptions): Prepared & { tol: number } {
+  const { tol, leaf, theta } = checkOptions(points, options)
+  const tree = buildTree(points, 2, leaf)
+  const lists = interactionLists(tree, theta)
+  return { tree, lists, leaf, theta, tol }
+}
+
+/** B(p) = Σ_{far pairs} n_A n_B θ^(p+1)/((p + 1)(1 − θ)) ≥ Σ n_A n_B ε(θ_AB, p), for p = 1..maxOrder;
+ *  B(0) = Σ n_A n_B (−log(1 − θ)) exactly. */
+function truncationBounds(tree: PointTree, lists: InteractionLists, maxOrder: number): Float64Array {
+  const out = new Float64Array(maxOrder + 1)
+  const F = lists.farA.length
+  const w = new Float64Array(F)
+  const t = new Float64Array(F)
+  for (let q = 0; q < F; q++) {
+    const a = lists.farA[q]
+    const b = lists.farB[q]
+    const th = lists.farRatio[q]
+    w[q] = ((tree.end[a] - tree.start[a]) * (tree.end[b] - tree.start[b])) / (1 - th)
+    t[q] = th
+  }
+  const exact0 = new CompensatedSum()
+  for (let q = 0; q < F; q++) exact0.add(-w[q] * (1 - t[q]) * Math.log1p(-t[q]))
+  for (let p = 0; p <= maxOrder; p++) {
+    const acc = new CompensatedSum()
+    for (let q = 0; q < F; q++) {
+      acc.add(w[q] * t[q])
+      t[q] *= lists.farRatio[q]
+    }
+    out[p] = acc.value / (p + 1)
+  }
+  // p = 0: the exact Σ_{n≥1} θ^n/n = −log(1 − θ)
+  out[0] = exact0.value
+  return out
+}
+
+/** The energy Σ_{i<j} −log|x_i − x_j| of points in the plane (flat x0, y0, x1, y1, …). */
+export function fmm2dEnergy(points: Float64Array, options: FmmOptions = {}): FmmEnergyResult {
+  const { tree, lists, leaf, theta, tol } = prepare(points, options)
+  const kernels = nearKernels(tree)
+  const near = -0.5 * nearLogSum(tree, lists.nearA, lists.nearB, kernels)
+  const bounds = truncationBounds(tree, lists, MAX_ORDER)
+  let p = options.order ?? 0
+  if (p === 0) {
+    // lower bound of |E| from the exact near field and the monopole far field
+    const mono = new CompensatedSum().add(near)
+    for (let q = 0; q < lists.farA.length; q++) {
+      const a = lists.farA[q]
+      const b = lists.farB[q]
+      const dx = tree.centre[2 * a] - tree.centre[2 * b]
+      const dy = tree.centre[2 * a + 1] - tree.centre[2 * b + 1]
+      mono.add(-0.5 * (tree.end[a] - tree.start[a]) * (tree.end[b] - tree.start[b]) * Math.log(dx * dx + dy * dy))
+    }
+    const L = Math.abs(mono.value) - bounds[0]
+    p = MAX_ORDER
+    if (L > 0) {
+      for (let k = 1; k <= MAX_ORDER; k++) {
+        if (bounds[k] <= 0.5 * tol * L) {
+          p = k
+          break
+        }
+      }
+    }
+  }
+  // far pairs with few points (n_A n_B ≤ p²) are summed directly: exact and cheaper than an M2L
+  const dA: number[] = []
+  const dB: number[] = []
+  const mA: number[] = []
+  const mB: number[] = []
+  const absAcc = new CompensatedSum()
+  for (let q = 0; q < lists.farA.length; q++) {
+    const a = lists.farA[q]
+    const b = lists.farB[q]
+    const w = (tree.end[a] - tree.start[a]) * (tree.end[b] - tree.start[b])
+    if (w <= p * p) {
+      dA.push(a)
+      dB.push(b)
+    }
+    else {
+      mA.push(a)
+      mB.push(b)
+      const th = lists.farRatio[q]
+      absAcc.add((w * Math.pow(th, p + 1)) / ((p + 1) * (1 - th)))
+    }
+  }
+  const direct = -0.5 * nearLogSum(tree, dA, dB, kernels)
+  const C = binomials(p)
+  const T = m2lTable(p, C)
+  const { re, im } = upwardPass(tree, p, C)
+  const out = new Float64Array(2 * (p + 1))
+  const scratch = new Float64Array(2 * (p + 1))
+  const far = new CompensatedSum()
+  for (let q = 0; q < mA.length; q++) {
+    const a = mA[q]
+    const b = mB[q]
+    out.fill(0)
+    m2l(tree, p, T, re, im, a, b, out, scratch)
+    // Σ_{i∈b} Φ_a(z_i) = Σ_l b̃_l S_l with S_0 = n_b, S_l = −l ã_l(b)
+    const ob = b * (p + 1)
+    let e = out[0] * re[ob]
+    for (let l = 1; l <= p; l++) e -= l * (out[2 * l] * re[ob + l] - out[2 * l + 1] * im[ob + l])
+    far.add(-e)
+  }
+  const value = far.add(near).add(direct).value
+  const abs = absAcc.value
+  return {
+    value,
+    absoluteErrorBound: abs,
+    errorBound: value === 0 ? Infinity : abs / Math.abs(value),
+    parameters: { order: p, leafSize: leaf, theta, nodes: tree.start.length, farPairs: mA.length, nearPairs: lists.nearA.length + dA.length },
+    engineVersion: ENGINE_VERSION,
+  }
+}
+
+/** Potentials φ_i = Σ_{j≠i} −log|x_i − x_j| and forces F_i = −∇φ_i(x_i) in the plane. With a
+ *  tolerance, p is the smallest order with ε(θ, p) ≤ tolerance and (1 + θ)θ^p/(1 − θ) ≤ tolerance. */
+export function fmm2dFields(points: Float64Array, options: FmmOptions = {}): FmmFieldsResult {
+  const { tree, lists, leaf, theta, tol } = prepare(points, options)
+  let p = options.order ?? 0
+  if (p === 0) {
+    p = MAX_ORDER
+    for (let k = 1; k <= MAX_ORDER; k++) {
+      if (logTail(theta, k) <= tol && ((1 + theta) * Math.pow(theta, k)) / (1 - theta) <= tol) {
+        p = k
+        break
+      }
+    }
+  }
+  const N = points.length / 2
+  const P = tree.sorted
+  const M = tree.start.length
+  const C = binomials(p)
+  const T = m2lTable(p, C)
+  const { re, im } = upwardPass(tree, p, C)
+  const loc = new Float64Array(M * 2 * (p + 1))
+  const out = new Float64Array(2 * (p + 1))
+  const scratch = new Float64Array(2 * (p + 1))
+  for (let q = 0; q < lists.farA.length; q++) {
+    const a = lists.farA[q]
+    const b = lists.farB[q]
+    for (const [s, t] of [[a, b], [b, a]]) {
+      out.fill(0)
+      m2l(tree, p, T, re, im, s, t, out, scratch)
+      const ot = t * 2 * (p + 1)
+      for (let k = 0; k < 2 * (p + 1); k++) loc[ot + k] += out[k]
+    }
+  }
+  // L2L, parents before children (node indices increase downwards)
+  for (let node = 0; node < M; node++) {
+    const o = node * 2 * (p + 1)
+    for (const c of tree.children[node]) {
+      const oc = c * 2 * (p + 1)
+      const R = tree.half[node]
+      const tx = (tree.centre[2 * c] - tree.centre[2 * node]) / R
+      const ty = (tree.centre[2 * c + 1] - tree.centre[2 * node + 1]) / R
+      for (let k = 0; k < 2 * (p + 1); k++) out[k] = loc[o + k]
+      for (let j = 0; j < p; j++) {
+        for (let k = p - 1; k >= j; k--) {
+          const br = out[2 * (k + 1)]
+          const bi = out[2 * (k + 1) + 1]
+          out[2 * k] += tx * br - ty * bi
+          out[2 * k + 1] += tx * bi + ty * br
+        }
+      }
+      const rho = tree.half[c] / R
+      let rk = 1
+      for (let k = 0; k <= p; k++) {
+        loc[oc + 2 * k] += out[2 * k] * rk
+        loc[oc + 2 * k + 1] += out[2 * k + 1] * rk
+        rk *= rho
+      }
+    }
+  }
+  const phi = new Float64Array(N)
+  const fx = new Float64Array(N)
+  const fy = new Float64Array(N)
+  for (let node = 0; node < M; node++) {
+    if (tree.children[node].length !== 0) continue
+    const o = node * 2 * (p + 1)
+    const R = tree.half[node]
+    const cx = tree.centre[2 * node]
+    const cy = tree.centre[2 * node + 1]
+    for (let i = tree.start[node]; i < tree.end[node]; i++) {
+      const wx = (P[2 * i] - cx) / R
+      const wy = (P[2 * i + 1] - cy) / R
+      // Horner for Φ and Φ′
+      let vr = loc[o + 2 * p]
+      let vi = loc[o + 2 * p + 1]
+      let dr = 0
+      let di = 0
+      for (let k = p - 1; k >= 0; k--) {
+        const ndr = dr * wx - di * wy + vr
+        di = dr * wy + di * wx + vi
+        dr = ndr
+        const nvr = vr * wx - vi * wy + loc[o + 2 * k]
+        vi = vr * wy + vi * wx + loc[o + 2 * k + 1]
+        vr = nvr
+      }
+      phi[i] = -vr
+      fx[i] = dr / R
+      fy[i] = -di / R
+    }
+  }
+  for (let q = 0; q < lists.nearA.length; q++) {
+    const a = lists.nearA[q]
+    const b = lists.nearB[q]
+    for (let i = tree.start[a]; i < tree.end[a]; i++) {
+      for (let j = a === b ? i + 1 : tree.start[b]; j < tree.end[b]; j++) {
+        const dx = P[2 * i] - P[2 * j]
+        const dy = P[2 * i + 1] - P[2 * j + 1]
+        const r2 = dx * dx + dy * dy
+        if (r2 === 0) coincident(tree, i, j)
+        const g = -0.5 * Math.log(r2)
+        phi[i] += g
+        phi[j] += g
+        fx[i] += dx / r2
+        fy[i] += dy / r2
+        fx[j] -= dx / r2
+        fy[j] -= dy / r2
+      }
+    }
+  }
+  const potential = new Float64Array(N)
+  const force = new Float64Array(2 * N)
+  for (let m = 0; m < N; m++) {
+    const i = tree.perm[m]
+    potential[i] = phi[m]
+    force[2 * i] = fx[m]
+    force[2 * i + 1] = fy[m]
+  }
+  return {
+    potential,
+    force,
+    pairErrorBound: logTail(theta, p),
+    forceErrorBound: ((1 + theta) * Math.pow(theta, p)) / (1 - theta),
+    parameters: { order: p, leafSize: leaf, theta, nodes: M, farPairs: lists.farA.length, nearPairs: lists.nearA.length },
+    engineVersion: ENGINE_VERSION,
+  }
+}
