@@ -41,6 +41,8 @@ export default defineNuxtConfig({
       secretAccessKey: 'S3RVER',
       forcePathStyle: true,
     },
+    // Whether this server runs queued computations (NUXT_RUN_JOBS=false for a server that only answers requests).
+    runJobs: true,
     // Where the bundled worker entry points are (default: <server dir>/workers).
     workersDir: '',
     // Trust X-Forwarded-For for the client address (only behind a reverse proxy you run).

@@ -1,5 +1,6 @@
 // Reading and checking the --input file of a command.
-import { readEnsemble, sha256Hex, validateEnsemble } from '../shared/physics/formats'
+import { sha256Hex, validateEnsemble } from '../shared/physics/formats'
+import { readStoredEnsemble } from '../shared/physics/formats/stored'
 import type { PointEnsemble } from '../shared/physics/formats'
 import type { Geometry } from '../shared/physics/types'
 import type { EngineIO, OptionValues } from './command'
@@ -16,7 +17,7 @@ export interface LoadedInput {
 }
 
 export const inputOptions = [
-  { name: 'input', type: 'string' as const, description: 'configuration file: CSV/TSV/whitespace text, JSON or NPY' },
+  { name: 'input', type: 'string' as const, description: 'configuration file: CSV/TSV/whitespace text, JSON, NPY, or a zip of such files' },
   { name: 'configuration', type: 'number' as const, description: 'work on this configuration only (0-based); default: every one' },
 ]
 
@@ -24,7 +25,7 @@ export async function loadInput(args: OptionValues, io: EngineIO): Promise<Loade
   const path = requireString(args, 'input')
   const bytes = io.readFile(path)
   const fileName = path.split('/').pop() ?? path
-  const ensemble = readEnsemble(bytes, fileName)
+  const { ensemble } = readStoredEnsemble(bytes, fileName)
   const geometry = readGeometry(args, ensemble.d)
   validateEnsemble(ensemble, { geometry })
   const only = numberOption(args, 'configuration')

@@ -121,6 +121,55 @@ export const apiTokens = mysqlTable('api_token', {
   ...timestamps,
 }, t => [uniqueIndex('api_token_hash_unique').on(t.tokenHash), index('api_token_companion_idx').on(t.companionId)])
 
+export const COMPUTATION_STATUSES = ['queued', 'running', 'current', 'failed', 'cancelled'] as const
+
+// A computation is a quantity of the engine evaluated over one or more ensembles with parameters.
+// Its row is also its job: status, attempts, progress and heartbeat live here, so queued and
+// running work survives a restart of the server.
+export const computations = mysqlTable('computation', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  companionId: bigint('companion_id', { mode: 'number', unsigned: true }).notNull().references(() => companions.id, { onDelete: 'cascade' }),
+  name: varchar('name', { length: 200 }).notNull(),
+  quantity: varchar('quantity', { length: 60 }).notNull(),
+  parameters: json('parameters').$type<Record<string, string | number | boolean>>().notNull(),
+  ensembleIds: json('ensemble_ids').$type<number[]>().notNull(),
+  status: mysqlEnum('status', COMPUTATION_STATUSES).notNull().default('queued'),
+  inputHash: varchar('input_hash', { length: 64 }).notNull(),
+  resultId: bigint('result_id', { mode: 'number', unsigned: true }),
+  error: text('error'),
+  progress: double('progress').notNull().default(0),
+  progressNote: varchar('progress_note', { length: 200 }).notNull().default(''),
+  attempts: int('attempts').notNull().default(0),
+  createdBy: varchar('created_by', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
+  startedAt: datetime('started_at'),
+  finishedAt: datetime('finished_at'),
+  heartbeatAt: datetime('heartbeat_at'),
+  ...timestamps,
+}, t => [index('computation_companion_idx').on(t.companionId), index('computation_status_idx').on(t.status)])
+
+// Results by input hash (quantity, parameters, the ensembles' bytes and settings, engine version):
+// identical inputs are computed once.
+export const computationResults = mysqlTable('computation_result', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  inputHash: varchar('input_hash', { length: 64 }).notNull(),
+  quantity: varchar('quantity', { length: 60 }).notNull(),
+  engineVersion: varchar('engine_version', { length: 20 }).notNull(),
+  table: json('result_table').$type<ComputationTable>().notNull(),
+  createdAt: timestamp('created_at', { mode: 'date' }).notNull().default(sql`CURRENT_TIMESTAMP`),
+}, t => [uniqueIndex('computation_result_hash_unique').on(t.inputHash)])
+
+/** A computation's result: one row per configuration (or per bin) plus aggregates. */
+export interface ComputationTable {
+  quantity: string
+  columns: Array<{ name: string, label: string }>
+  rows: Array<Record<string, number | string | null>>
+  aggregates: Record<string, number | string | null>
+  convention: string
+  engineVersion: string
+  inputHash: string
+  notes: string[]
+}
+
 export const usersRelations = relations(users, ({ many }) => ({
   memberships: many(memberships),
   sessions: many(sessions),

@@ -10,6 +10,7 @@ import type { AppDatabase } from '../utils/db'
 import type { Manifest, ManifestEnsemble } from '../utils/revisions'
 import { parsePotential } from '#shared/physics/potentials/expression'
 import { EngineInputError } from '#shared/physics/errors'
+import { requeueAffected } from './computations'
 
 type Transaction = Parameters<Parameters<AppDatabase['transaction']>[0]>[0]
 type Reader = AppDatabase | Transaction
@@ -236,7 +237,7 @@ export async function updateEnsemble(companion: CompanionRow, user: Pick<User, '
   }
   checkPotential({ potential: setting.potential, geometry: setting.geometry })
   const changed = Object.keys(patch).filter(k => (patch as Record<string, unknown>)[k] !== undefined)
-  return commitChange(companion, user, async (tx) => {
+  const change = await commitChange(companion, user, async (tx) => {
     await tx.update(tables.ensembles).set({
       setting,
       ...(patch.name !== undefined ? { name: patch.name } : {}),
@@ -244,14 +245,18 @@ export async function updateEnsemble(companion: CompanionRow, user: Pick<User, '
     }).where(eq(tables.ensembles.id, id))
     return { result: id, message: `Change ${changed.join(', ') || 'nothing'} of ensemble «${patch.name ?? before.name}»` }
   })
+  await requeueAffected(companion.id)
+  return change
 }
 
 export async function removeEnsemble(companion: CompanionRow, user: Pick<User, 'displayName' | 'email'>, id: number) {
   const before = await findEnsemble(companion.id, id)
-  return commitChange(companion, user, async (tx) => {
+  const change = await commitChange(companion, user, async (tx) => {
     await tx.delete(tables.ensembles).where(eq(tables.ensembles.id, id))
     return { result: id, message: `Remove ensemble «${before.name}» (its data stays in earlier revisions)` }
   })
+  await requeueAffected(companion.id)
+  return change
 }
 
 /** Makes the rows match a restored manifest; objects are content-addressed and never deleted. */
@@ -259,7 +264,7 @@ export async function restoreCompanionRevision(companion: CompanionRow, user: Pi
   const dir = repositoryDirectory(companion.id)
   const manifest = await readManifest(dir, oid).catch(revisionProblem)
   const short = oid.slice(0, 8)
-  return commitChange(companion, user, async (tx) => {
+  const change = await commitChange(companion, user, async (tx) => {
     await tx.delete(tables.ensembles).where(eq(tables.ensembles.companionId, companion.id))
     for (const e of manifest.ensembles) {
       const [row] = await tx.insert(tables.ensembles).values({
@@ -295,4 +300,6 @@ export async function restoreCompanionRevision(companion: CompanionRow, user: Pi
     }
     return { result: manifest.ensembles.length, message: `Restore revision ${short}` }
   })
+  await requeueAffected(companion.id)
+  return change
 }

@@ -83,3 +83,10 @@ export const tokenCreateSchema = z.object({
   scopes: z.array(z.enum(['ensembles:read', 'ensembles:write'], { message: 'Scopes are ensembles:read and ensembles:write.' }))
     .min(1, 'Choose at least one scope.').max(2),
 })
+
+export const computationCreateSchema = z.object({
+  name: z.string().trim().min(1, 'Name the computation, e.g. "next-order energy, all N".').max(200, 'A name has at most 200 characters.'),
+  quantity: z.string().trim().min(1, 'Choose a quantity.').max(60),
+  ensembleIds: z.array(z.number().int().positive()).min(1, 'Choose at least one ensemble.').max(50, 'At most 50 ensembles in one computation.'),
+  parameters: z.record(z.string().max(40), z.union([z.string().max(500), z.number(), z.boolean(), z.null()])).default({}),
+})

@@ -20,6 +20,7 @@ let slug = ''
 let ensembleId = 0
 let firstRevision = ''
 let lastRevision = ''
+let computationId = 0
 
 function clientFor(as: Role): ApiClient {
   if (as === 'anonymous') return new ApiClient()
@@ -139,6 +140,28 @@ const rows: Row[] = [
   { route: 'DELETE /api/companions/[slug]/tokens/[id]', expect: authors(204), call: async as => status(as, 'DELETE', `/api/companions/${slug}/tokens/${await tokenToRevoke(as)}`) },
   { route: 'GET /files/[slug]/ensembles/[id]', expect: readers(200), call: as => status(as, 'GET', `/files/${slug}/ensembles/${ensembleId}?format=csv`) },
   { route: 'GET /files/[slug]/archive', expect: readers(200), call: as => status(as, 'GET', `/files/${slug}/archive`) },
+  { route: 'GET /api/catalogue', expect: all(200), call: as => status(as, 'GET', '/api/catalogue') },
+  { route: 'GET /api/companions/[slug]/computations', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/computations`) },
+  { route: 'POST /api/companions/[slug]/computations', expect: authors(201), call: as => status(as, 'POST', `/api/companions/${slug}/computations`, { name: `by ${as}`, quantity: 'energy', ensembleIds: [ensembleId], parameters: {} }) },
+  { route: 'GET /api/companions/[slug]/computations/[id]', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/computations/${computationId}`) },
+  { route: 'GET /api/companions/[slug]/computations/[id]/events', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/computations/${computationId}/events`) },
+  {
+    route: 'POST /api/companions/[slug]/computations/[id]/cancel',
+    expect: authors(200),
+    call: async (as) => {
+      const made = await accounts.editor.client.post<{ id: number }>(`/api/companions/${slug}/computations`, { name: 'to cancel', quantity: 'statistic:nn', ensembleIds: [ensembleId], parameters: { 'window-radius': 0.9, 'seed': `${as}-${Math.random()}` } })
+      return status(as, 'POST', `/api/companions/${slug}/computations/${made.body.id}/cancel`, {})
+    },
+  },
+  {
+    route: 'POST /api/companions/[slug]/computations/[id]/queue',
+    expect: authors(200),
+    call: async (as) => {
+      const made = await accounts.editor.client.post<{ id: number }>(`/api/companions/${slug}/computations`, { name: 'to queue again', quantity: 'statistic:nn', ensembleIds: [ensembleId], parameters: { 'window-radius': 0.9, 'seed': `q-${as}-${Math.random()}` } })
+      await accounts.editor.client.post(`/api/companions/${slug}/computations/${made.body.id}/cancel`, {})
+      return status(as, 'POST', `/api/companions/${slug}/computations/${made.body.id}/queue`, {})
+    },
+  },
   { route: 'GET /api/admin/users', expect: adminsOnly(200), call: as => status(as, 'GET', '/api/admin/users') },
   {
     route: 'PATCH /api/admin/users/[id]',
@@ -165,6 +188,8 @@ beforeAll(async () => {
   firstRevision = first.body.revision
   const second = await accounts.editor.client.patch<{ revision: string }>(`/api/companions/${slug}/ensembles/${ensembleId}`, { convention: { pairs: 'half', fieldScale: 1, logSign: 'minus-log', gibbs: 'beta' } })
   lastRevision = second.body.revision
+  const computation = await accounts.editor.client.post<{ id: number }>(`/api/companions/${slug}/computations`, { name: 'fixture', quantity: 'energy', ensembleIds: [ensembleId], parameters: {} })
+  computationId = computation.body.id
 })
 
 describe('role matrix', () => {

@@ -1,0 +1,8 @@
+import { cancelComputation } from '../../../../../services/computations'
+
+export default defineEventHandler(async (event) => {
+  const { slug, id } = readParamsWith(event, computationParams)
+  const { companion } = await requireCompanionRole(event, slug, 'author')
+  await cancelComputation(companion.id, id)
+  return { ok: true }
+})

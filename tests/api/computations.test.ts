@@ -1,0 +1,129 @@
+// Computations end to end: queued in MariaDB, run by the server's runner in a worker thread,
+// results stored by input hash; compared with the engine's command line on the same file.
+import { beforeAll, describe, expect, it } from 'vitest'
+import { runEngine } from '../../cli/engine'
+import { planeSetting, signUp, uniqueCsv, uniqueName, withDatabase } from '../support/http'
+import type { TestAccount } from '../support/http'
+
+let author: TestAccount
+let slug = ''
+let ensembleId = 0
+let csv = ''
+
+interface Computation { id: number, status: string, resultId: number | null, error: string | null, inputHash: string }
+interface Detail { computation: Computation, result: { id: number, table: { rows: Array<Record<string, number | string | null>>, convention: string, engineVersion: string } } | null }
+
+async function waitFor(id: number, done: (c: Computation) => boolean, seconds = 40): Promise<Detail> {
+  for (let i = 0; i < seconds * 5; i++) {
+    const reply = await author.client.get<Detail>(`/api/companions/${slug}/computations/${id}`)
+    if (done(reply.body.computation)) return reply.body
+    await new Promise(resolve => setTimeout(resolve, 200))
+  }
+  throw new Error(`computation ${id} did not get there in ${seconds} s`)
+}
+const ended = (c: Computation) => !['queued', 'running'].includes(c.status)
+
+async function create(body: Record<string, unknown>) {
+  const reply = await author.client.post<{ id: number, status: string, reused: boolean }>(`/api/companions/${slug}/computations`, body)
+  expect(reply.status, JSON.stringify(reply.body)).toBe(201)
+  return reply.body
+}
+
+beforeAll(async () => {
+  author = await signUp('computer')
+  slug = uniqueName('comp-')
+  await author.client.post('/api/companions', { title: 'Computation tests', slug })
+  csv = uniqueCsv(40)
+  const up = await author.client.upload<{ id: number }>(`/api/companions/${slug}/ensembles`, planeSetting('forty points'), 'forty.csv', csv)
+  ensembleId = up.body.id
+})
+
+describe('computations', () => {
+  it('lists the catalogue generated from the engine', async () => {
+    const reply = await author.client.get<{ quantities: Array<{ id: string }> }>('/api/catalogue')
+    expect(reply.body.quantities.map(q => q.id)).toEqual(expect.arrayContaining(['energy', 'next-order', 'statistic:pair-correlation', 'statistic:spacing']))
+  })
+
+  it('computes energies in a worker and agrees with the command line to the last bit', async () => {
+    const { id } = await create({ name: 'energies', quantity: 'energy', ensembleIds: [ensembleId], parameters: {} })
+    const detail = await waitFor(id, ended)
+    expect(detail.computation.status).toBe('current')
+    const row = detail.result!.table.rows[0]!
+    const cli = await runEngine(['energy', '--input', 'forty.csv', '--potential', 'r^2'], { readFile: () => new TextEncoder().encode(csv), writeFile: () => undefined })
+    const expected = JSON.parse(cli.stdout) as { pairSum: number, confinement: number, H: number }
+    expect(row.pairSum).toBe(expected.pairSum)
+    expect(row.confinement).toBe(expected.confinement)
+    expect(row.H).toBe(expected.H)
+    expect(detail.result!.table.convention).toContain('Σ_{i≠j}')
+  })
+
+  it('never computes identical inputs twice', async () => {
+    const first = await create({ name: 'next order', quantity: 'next-order', ensembleIds: [ensembleId], parameters: { eta: 'fixed:0.001' } })
+    const a = await waitFor(first.id, ended)
+    const second = await create({ name: 'next order again', quantity: 'next-order', ensembleIds: [ensembleId], parameters: { eta: 'fixed:0.001' } })
+    expect(second.reused).toBe(true)
+    expect(second.status).toBe('current')
+    const b = await author.client.get<Detail>(`/api/companions/${slug}/computations/${second.id}`)
+    expect(b.body.computation.resultId).toBe(a.computation.resultId)
+    const rows = await withDatabase(async (c) => {
+      const [r] = await c.query('SELECT COUNT(*) AS n FROM computation_result WHERE input_hash = ?', [a.computation.inputHash])
+      return Number((r as Array<{ n: number }>)[0]!.n)
+    })
+    expect(rows).toBe(1)
+  })
+
+  it('shows the engine\'s reason when a computation fails', async () => {
+    const { id } = await create({ name: 'spacings of planar points', quantity: 'statistic:spacing', ensembleIds: [ensembleId], parameters: {} })
+    const detail = await waitFor(id, ended)
+    expect(detail.computation.status).toBe('failed')
+    expect(detail.computation.error).toMatch(/d = 1|dimension|1-D|one/i)
+  })
+
+  it('refuses parameters the quantity does not have, field by field', async () => {
+    const reply = await author.client.post<{ data: { fields: Record<string, string> } }>(`/api/companions/${slug}/computations`, { name: 'x', quantity: 'energy', ensembleIds: [ensembleId], parameters: { bins: 3 } })
+    expect(reply.status).toBe(422)
+    expect(reply.body.data.fields.bins).toMatch(/no parameter/)
+  })
+
+  it('queues the affected computations again when the convention of an ensemble changes', async () => {
+    const { id } = await create({ name: 'energies to follow', quantity: 'energy', ensembleIds: [ensembleId], parameters: {} })
+    const before = await waitFor(id, ended)
+    const patched = await author.client.patch(`/api/companions/${slug}/ensembles/${ensembleId}`, { convention: { pairs: 'half', fieldScale: 1, logSign: 'minus-log', gibbs: 'beta' } })
+    expect(patched.status).toBe(200)
+    const after = await waitFor(id, c => ended(c) && c.inputHash !== before.computation.inputHash)
+    expect(after.computation.status).toBe('current')
+    expect(after.computation.resultId).not.toBe(before.computation.resultId)
+    const row = after.result!.table.rows[0]!
+    // ½Σ_{i≠j} g + Σ V (MATH.md §2): the declared convention, from the same pair sum and confinement.
+    expect(row.Hconv).toBeCloseTo(Number(row.pairSum) + Number(row.confinement), 10)
+  })
+
+  it('streams progress as server-sent events until the computation ends', async () => {
+    const { id } = await create({ name: 'pair correlation', quantity: 'statistic:pair-correlation', ensembleIds: [ensembleId], parameters: { 'bins': 5, 'window-radius': 0.9 } })
+    const response = await fetch(`${process.env.QF_BASE_URL}/api/companions/${slug}/computations/${id}/events`, { headers: { cookie: author.client.cookie } })
+    expect(response.headers.get('content-type')).toContain('text/event-stream')
+    const text = await response.text()
+    const events = text.split('\n').filter(l => l.startsWith('data: ')).map(l => JSON.parse(l.slice(6)) as { status: string })
+    expect(events.length).toBeGreaterThan(0)
+    expect(['current', 'failed']).toContain(events.at(-1)!.status)
+  })
+
+  it('resumes a computation left running by a stopped server', async () => {
+    const { id } = await create({ name: 'interrupted', quantity: 'energy', ensembleIds: [ensembleId], parameters: { convention: '{"pairs":"full","fieldScale":"N/2","logSign":"minus-log","gibbs":"beta"}' } })
+    await waitFor(id, ended)
+    // Pretend a server died while running it: running, a stale heartbeat, one attempt used, no result.
+    await withDatabase(c => c.query('UPDATE computation SET status = ?, heartbeat_at = UTC_TIMESTAMP() - INTERVAL 1 HOUR, attempts = 1, result_id = NULL WHERE id = ?', ['running', id]))
+    const detail = await waitFor(id, c => c.status === 'current' && c.resultId !== null, 45)
+    expect(detail.result).not.toBeNull()
+  }, 60_000)
+
+  it('cancels a queued computation', async () => {
+    await withDatabase(c => c.query('UPDATE computation SET status = ? WHERE status = ? AND companion_id = (SELECT id FROM companion WHERE slug = ?)', ['cancelled', 'queued', slug]))
+    const { id } = await create({ name: 'to cancel', quantity: 'statistic:nn', ensembleIds: [ensembleId], parameters: { 'window-radius': 0.95, 'replicates': 50 } })
+    const cancelled = await author.client.post(`/api/companions/${slug}/computations/${id}/cancel`)
+    // It may already have finished on a fast machine; then cancelling is refused with 409.
+    expect([200, 409]).toContain(cancelled.status)
+    const detail = await waitFor(id, ended)
+    expect(cancelled.status === 200 ? 'cancelled' : 'current').toBe(detail.computation.status)
+  })
+})
