@@ -4,6 +4,7 @@
 //      measured relative error
 //   3. the 3-D Coulomb tree code vs the direct sum (information)
 //   4. a NumPy/SciPy peer (scipy.spatial.distance.pdist), when python3 has numpy and scipy
+//   5. samplers and statistics (bench/samplers.ts)
 // Usage: npx tsx bench/run.ts [--large]
 import { execFileSync } from 'node:child_process'
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
@@ -14,6 +15,7 @@ import { fmm2dEnergy } from '../shared/physics/fast/fmm2d'
 import { treecodeEnergy } from '../shared/physics/fast/treecode'
 import { PairKernels, wasmPairSum } from '../shared/physics/fast/wasm'
 import { PairPool } from '../server/engine/pool'
+import { benchSamplersAndStatistics } from './samplers'
 
 const large = process.argv.includes('--large')
 
@@ -121,6 +123,7 @@ async function main(): Promise<void> {
     }
   }
   await pool.close()
+  benchSamplersAndStatistics()
 }
 
 await main()
