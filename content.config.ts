@@ -6,5 +6,9 @@ export default defineContentConfig({
       type: 'page',
       source: 'methods/**/*.md',
     }),
+    guide: defineCollection({
+      type: 'page',
+      source: 'guide/**/*.md',
+    }),
   },
 })

@@ -115,5 +115,7 @@ describe('foundation journey', () => {
     await expect(page.getByTestId('method-page').textContent()).resolves.toContain('canonical convention')
     await expect(page.evaluate(() => document.documentElement.classList.contains('dark'))).resolves.toBe(true)
     await page.screenshot({ path: `${shots}/method-dark.png`, fullPage: true })
+    await visit(page, '/guide/pipeline-tokens')
+    await expect(page.getByTestId('guide-page').textContent()).resolves.toContain('Authorization: Bearer')
   })
 })
