@@ -20,6 +20,7 @@ import type { EquilibriumMeasure } from '../../shared/physics/equilibrium/types'
 import { gaussLegendreOn } from '../../shared/physics/quadrature'
 import { EngineInputError } from '../../shared/physics/errors'
 import type { Potential } from '../../shared/physics/potentials/types'
+import { quadraticPotential } from '../../shared/physics/potentials/presets'
 
 /** Tanh–sinh rule with a fixed step 1/64 on t ∈ [−3.2, 3.2] (Takahasi & Mori 1974), after x = a + (b − a)w²
  *  which softens an algebraic singularity at a; nodes that round onto an endpoint are skipped (their weight
@@ -65,24 +66,8 @@ function glc(f: (x: number) => number, a: number, b: number, panels: number, n =
   return s
 }
 
-function quadratic(a: number, d: number): Potential {
-  return {
-    d,
-    text: `${a}*r^2`,
-    latex: `${a}|x|^2`,
-    preset: { name: 'quadratic', a },
-    radial: true,
-    value: (p, o = 0) => {
-      let s = 0
-      for (let k = 0; k < d; k++) s += p[o + k] * p[o + k]
-      return a * s
-    },
-    gradient: (p, o, out) => {
-      for (let k = 0; k < d; k++) out[k] = 2 * a * p[o + k]
-    },
-    laplacian: () => 2 * a * d,
-  }
-}
+// The engine's quadratic preset V = a|x|² (its own tests are in tests/unit/physics/potentials.test.ts).
+const quadratic = quadraticPotential
 
 /** A point at distance r from the origin in a fixed generic direction. */
 function at(d: number, r: number): Float64Array {

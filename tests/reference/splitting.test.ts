@@ -5,7 +5,7 @@ import { describe, it, expect } from 'vitest'
 import { nextOrderEnergy } from '../../shared/physics/nextorder'
 import { energy, pairSumNaive } from '../../shared/physics/energy'
 import type { Configuration, Geometry, Kernel } from '../../shared/physics/types'
-import type { Potential } from '../../shared/physics/potentials/types'
+import { quadraticPotential } from '../../shared/physics/potentials/presets'
 
 // Tiny LCG for test inputs only (common practice).
 function lcg(seed: number): () => number {
@@ -16,24 +16,8 @@ function lcg(seed: number): () => number {
   }
 }
 
-function quadratic(a: number, d: number): Potential {
-  return {
-    d,
-    text: `${a}*r^2`,
-    latex: `${a}|x|^2`,
-    preset: { name: 'quadratic', a },
-    radial: true,
-    value: (p, o = 0) => {
-      let s = 0
-      for (let k = 0; k < d; k++) s += p[o + k] * p[o + k]
-      return a * s
-    },
-    gradient: (p, o, out) => {
-      for (let k = 0; k < d; k++) out[k] = 2 * a * p[o + k]
-    },
-    laplacian: () => 2 * a * d,
-  }
-}
+// The engine's quadratic preset V = a|x|² (its own tests are in tests/unit/physics/potentials.test.ts).
+const quadratic = quadraticPotential
 
 /** N points uniform in the cube [−L, L]^d (many fall outside the support when L exceeds its radius). */
 function cube(N: number, d: number, L: number, seed: number): Configuration {

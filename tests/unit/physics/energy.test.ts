@@ -4,6 +4,7 @@ import { EngineInputError } from '../../../shared/physics/errors'
 import { ENGINE_VERSION } from '../../../shared/physics/version'
 import type { Configuration, Geometry, Kernel } from '../../../shared/physics/types'
 import type { Potential } from '../../../shared/physics/potentials/types'
+import { quadraticPotential } from '../../../shared/physics/potentials/presets'
 
 // Tiny LCG for test inputs only (common practice).
 function lcg(seed: number): () => number {
@@ -33,24 +34,8 @@ function randomSphere(N: number, seed: number): Configuration {
   return { N, d: 3, points }
 }
 
-function quadratic(a: number, d: number): Potential {
-  return {
-    d,
-    text: `${a}*r^2`,
-    latex: `${a}|x|^2`,
-    preset: { name: 'quadratic', a },
-    radial: true,
-    value: (p, o = 0) => {
-      let s = 0
-      for (let k = 0; k < d; k++) s += p[o + k] * p[o + k]
-      return a * s
-    },
-    gradient: (p, o, out) => {
-      for (let k = 0; k < d; k++) out[k] = 2 * a * p[o + k]
-    },
-    laplacian: () => 2 * a * d,
-  }
-}
+// The engine's quadratic preset V = a|x|² (its own tests are in tests/unit/physics/potentials.test.ts).
+const quadratic = quadraticPotential
 
 const cases: Array<{ kernel: Kernel, geometry: Geometry, d: number }> = [
   { kernel: { name: 'log' }, geometry: { kind: 'free', d: 1 }, d: 1 },

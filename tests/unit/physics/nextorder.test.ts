@@ -5,26 +5,10 @@ import { ENGINE_VERSION } from '../../../shared/physics/version'
 import { CANONICAL_CONVENTION } from '../../../shared/physics/conventions'
 import { EngineInputError } from '../../../shared/physics/errors'
 import type { Configuration } from '../../../shared/physics/types'
-import type { Potential } from '../../../shared/physics/potentials/types'
+import { quadraticPotential } from '../../../shared/physics/potentials/presets'
 
-function quadratic(a: number, d: number): Potential {
-  return {
-    d,
-    text: `${a}*r^2`,
-    latex: `${a}|x|^2`,
-    preset: { name: 'quadratic', a },
-    radial: true,
-    value: (p, o = 0) => {
-      let s = 0
-      for (let k = 0; k < d; k++) s += p[o + k] * p[o + k]
-      return a * s
-    },
-    gradient: (p, o, out) => {
-      for (let k = 0; k < d; k++) out[k] = 2 * a * p[o + k]
-    },
-    laplacian: () => 2 * a * d,
-  }
-}
+// The engine's quadratic preset V = a|x|² (its own tests are in tests/unit/physics/potentials.test.ts).
+const quadratic = quadraticPotential
 
 describe('next-order energy', () => {
   it('one point at the centre of the disk: F_1 = −2 h(0) + ∬ = −1 + ¼ (a = 1, MATH.md §3)', () => {
