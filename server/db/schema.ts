@@ -158,6 +158,21 @@ export const computationResults = mysqlTable('computation_result', {
   createdAt: timestamp('created_at', { mode: 'date' }).notNull().default(sql`CURRENT_TIMESTAMP`),
 }, t => [uniqueIndex('computation_result_hash_unique').on(t.inputHash)])
 
+// A figure of a companion: numbered within it, drawn by one of our templates from the results of
+// one or more computations.
+export const figures = mysqlTable('figure', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  companionId: bigint('companion_id', { mode: 'number', unsigned: true }).notNull().references(() => companions.id, { onDelete: 'cascade' }),
+  number: int('number').notNull(),
+  title: varchar('title', { length: 300 }).notNull(),
+  caption: text('caption').notNull(),
+  template: varchar('template', { length: 60 }).notNull(),
+  computationIds: json('computation_ids').$type<number[]>().notNull(),
+  options: json('options').$type<Record<string, string | number | boolean>>().notNull(),
+  createdBy: varchar('created_by', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [uniqueIndex('figure_number_unique').on(t.companionId, t.number)])
+
 /** A computation's result: one row per configuration (or per bin) plus aggregates. */
 export interface ComputationTable {
   quantity: string

@@ -90,3 +90,11 @@ export const computationCreateSchema = z.object({
   ensembleIds: z.array(z.number().int().positive()).min(1, 'Choose at least one ensemble.').max(50, 'At most 50 ensembles in one computation.'),
   parameters: z.record(z.string().max(40), z.union([z.string().max(500), z.number(), z.boolean(), z.null()])).default({}),
 })
+
+export const figureCreateSchema = z.object({
+  title: z.string().trim().min(1, 'Give the figure a title.').max(300, 'A title has at most 300 characters.'),
+  caption: z.string().trim().max(5000, 'A caption has at most 5000 characters.').default(''),
+  template: z.string().trim().min(1, 'Choose a template.').max(60),
+  computationIds: z.array(z.number().int().positive()).min(1, 'Choose at least one computation.').max(20),
+  options: z.record(z.string().max(40), z.union([z.string().max(200), z.number(), z.boolean()])).default({}),
+})

@@ -162,6 +162,11 @@ const rows: Row[] = [
       return status(as, 'POST', `/api/companions/${slug}/computations/${made.body.id}/queue`, {})
     },
   },
+  { route: 'GET /api/figure-templates', expect: all(200), call: as => status(as, 'GET', '/api/figure-templates') },
+  { route: 'GET /api/companions/[slug]/figures', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/figures`) },
+  { route: 'POST /api/companions/[slug]/figures', expect: authors(201), call: as => status(as, 'POST', `/api/companions/${slug}/figures`, { title: `by ${as}`, template: 'energy-expansion', computationIds: [computationId] }) },
+  { route: 'GET /api/companions/[slug]/figures/[number]', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/figures/1`) },
+  { route: 'GET /files/[slug]/figures/[number]', expect: readers(200), call: as => status(as, 'GET', `/files/${slug}/figures/1?format=svg`) },
   { route: 'GET /api/admin/users', expect: adminsOnly(200), call: as => status(as, 'GET', '/api/admin/users') },
   {
     route: 'PATCH /api/admin/users/[id]',
@@ -190,6 +195,18 @@ beforeAll(async () => {
   lastRevision = second.body.revision
   const computation = await accounts.editor.client.post<{ id: number }>(`/api/companions/${slug}/computations`, { name: 'fixture', quantity: 'energy', ensembleIds: [ensembleId], parameters: {} })
   computationId = computation.body.id
+  // A drawable figure: the pair correlation of an evenly spread disk of 300 points.
+  const rows = ['x,y']
+  for (let i = 0; i < 300; i++) rows.push(`${Math.sqrt((i + 0.5) / 300) * Math.cos(i * 2.399963229728653)},${Math.sqrt((i + 0.5) / 300) * Math.sin(i * 2.399963229728653)}`)
+  const disk = await accounts.editor.client.upload<{ id: number }>(`/api/companions/${slug}/ensembles`, planeSetting('disk'), 'disk.csv', `${rows.join('\n')}\n`)
+  const g = await accounts.editor.client.post<{ id: number }>(`/api/companions/${slug}/computations`, { name: 'g', quantity: 'statistic:pair-correlation', ensembleIds: [disk.body.id], parameters: { 'window-radius': 0.9, 'bins': 6, 'rmax': 0.2 } })
+  for (let i = 0; i < 200; i++) {
+    const c = await accounts.editor.client.get<{ computation: { status: string } }>(`/api/companions/${slug}/computations/${g.body.id}`)
+    if (c.body.computation.status === 'current') break
+    await new Promise(resolve => setTimeout(resolve, 200))
+  }
+  const figure = await accounts.editor.client.post(`/api/companions/${slug}/figures`, { title: 'fixture figure', template: 'pair-correlation', computationIds: [g.body.id] })
+  if (figure.status !== 201) throw new Error(`fixture figure not made: ${figure.status}`)
 })
 
 describe('role matrix', () => {

@@ -1,0 +1,3 @@
+import { templateCatalogue } from '../services/figures'
+
+export default defineEventHandler(() => ({ templates: templateCatalogue() }))

@@ -1,0 +1,85 @@
+// Figures end to end: a computation's result drawn with one of our templates, its status, and the
+// server's SVG, PNG and column-sized SVG.
+import { beforeAll, describe, expect, it } from 'vitest'
+import { planeSetting, signUp, uniqueName } from '../support/http'
+import type { TestAccount } from '../support/http'
+
+let author: TestAccount
+let slug = ''
+let gId = 0
+let energyId = 0
+
+async function untilEnded(id: number) {
+  for (let i = 0; i < 200; i++) {
+    const reply = await author.client.get<{ computation: { status: string } }>(`/api/companions/${slug}/computations/${id}`)
+    if (!['queued', 'running'].includes(reply.body.computation.status)) return reply.body.computation.status
+    await new Promise(resolve => setTimeout(resolve, 200))
+  }
+  throw new Error('the computation did not end')
+}
+
+/** Points on a golden-angle spiral filling the unit disk: evenly spread, no two alike. */
+function spiral(N: number): string {
+  const rows = ['x,y']
+  for (let i = 0; i < N; i++) {
+    const r = Math.sqrt((i + 0.5) / N)
+    rows.push(`${r * Math.cos(i * 2.399963229728653)},${r * Math.sin(i * 2.399963229728653)}`)
+  }
+  return `${rows.join('\n')}\n`
+}
+
+beforeAll(async () => {
+  author = await signUp('figures')
+  slug = uniqueName('fig-')
+  await author.client.post('/api/companions', { title: 'Figure tests', slug })
+  const up = await author.client.upload<{ id: number }>(`/api/companions/${slug}/ensembles`, planeSetting('spiral'), 'spiral.csv', spiral(400))
+  const g = await author.client.post<{ id: number }>(`/api/companions/${slug}/computations`, { name: 'g(r)', quantity: 'statistic:pair-correlation', ensembleIds: [up.body.id], parameters: { 'window-radius': 0.9, 'bins': 8, 'rmax': 0.2 } })
+  gId = g.body.id
+  const e = await author.client.post<{ id: number }>(`/api/companions/${slug}/computations`, { name: 'energy', quantity: 'energy', ensembleIds: [up.body.id], parameters: {} })
+  energyId = e.body.id
+  expect(await untilEnded(gId)).toBe('current')
+  await untilEnded(energyId)
+})
+
+describe('figures', () => {
+  it('lists our templates with the quantities they draw', async () => {
+    const reply = await author.client.get<{ templates: Array<{ id: string, quantities: string[] }> }>('/api/figure-templates')
+    expect(reply.body.templates.find(t => t.id === 'pair-correlation')!.quantities).toContain('statistic:pair-correlation')
+  })
+
+  it('draws a pair correlation from its computation, numbered in the companion, with status current', async () => {
+    const made = await author.client.post<{ number: number }>(`/api/companions/${slug}/figures`, { title: 'Pair correlation of the spiral', template: 'pair-correlation', computationIds: [gId], caption: 'g(r) in the bulk.' })
+    expect(made.status).toBe(201)
+    expect(made.body.number).toBe(1)
+    const figure = await author.client.get<{ status: { word: string }, spec: { description: string, data: { values: unknown[] } } | null, tables: Array<{ rows: unknown[], convention: string }> }>(`/api/companions/${slug}/figures/1`)
+    expect(figure.body.status.word).toBe('current')
+    expect(figure.body.spec).not.toBeNull()
+    expect(figure.body.tables[0]!.rows).toHaveLength(8)
+    expect(figure.body.spec!.description).toContain('Convention')
+  })
+
+  it('renders the figure on the server as SVG, PNG and column-sized SVG', async () => {
+    const get = (format: string) => fetch(`${process.env.QF_BASE_URL}/files/${slug}/figures/1?format=${format}`, { headers: { cookie: author.client.cookie } })
+    const svg = await get('svg')
+    expect(svg.headers.get('content-type')).toContain('image/svg+xml')
+    expect(await svg.text()).toMatch(/^<svg/)
+    const png = new Uint8Array(await (await get('png')).arrayBuffer())
+    // The PNG signature (ISO/IEC 15948, §5.2).
+    expect(Array.from(png.slice(0, 8))).toEqual([137, 80, 78, 71, 13, 10, 26, 10])
+    expect(await (await get('single')).text()).toContain('width="252pt"')
+    expect(await (await get('double')).text()).toContain('width="504pt"')
+  })
+
+  it('refuses a template that does not draw the computation\'s quantity', async () => {
+    const reply = await author.client.post<{ message: string }>(`/api/companions/${slug}/figures`, { title: 'Wrong', template: 'spacing-surmise', computationIds: [gId] })
+    expect(reply.status).toBe(422)
+    expect(reply.body.message).toContain('statistic:spacing')
+  })
+
+  it('numbers the next figure 2 and lists both with their status', async () => {
+    await author.client.post(`/api/companions/${slug}/figures`, { title: 'Again', template: 'pair-correlation', computationIds: [gId] })
+    const list = await author.client.get<{ figures: Array<{ number: number, status: { word: string } }> }>(`/api/companions/${slug}/figures`)
+    expect(list.body.figures.map(f => f.number)).toEqual([1, 2])
+    expect(list.body.figures.every(f => f.status.word === 'current')).toBe(true)
+  })
+})
