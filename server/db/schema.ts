@@ -140,6 +140,8 @@ export const computations = mysqlTable('computation', {
   progress: double('progress').notNull().default(0),
   progressNote: varchar('progress_note', { length: 200 }).notNull().default(''),
   attempts: int('attempts').notNull().default(0),
+  // Values the authors declare (e.g. printed in the manuscript), compared with the recomputed ones.
+  declared: json('declared').$type<DeclaredValues>(),
   createdBy: varchar('created_by', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
   startedAt: datetime('started_at'),
   finishedAt: datetime('finished_at'),
@@ -172,6 +174,15 @@ export const figures = mysqlTable('figure', {
   createdBy: varchar('created_by', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,
 }, t => [uniqueIndex('figure_number_unique').on(t.companionId, t.number)])
+
+/** Declared values of one column, row by row, and the tolerance of the comparison. */
+export interface DeclaredValues {
+  column: string
+  values: Array<number | null>
+  relativeTolerance: number
+  absoluteTolerance: number
+  source: string
+}
 
 /** A computation's result: one row per configuration (or per bin) plus aggregates. */
 export interface ComputationTable {

@@ -73,11 +73,19 @@ export async function drawFigure(figure: typeof tables.figures.$inferSelect): Pr
       inputHash: result.inputHash,
     }]
   })
+  const drifted = rows.flatMap((r) => {
+    const result = results.find(x => x.id === r.resultId)
+    if (!r.declared || !result) return []
+    const comparison = compareDeclared(r.declared, result.table.rows)
+    return comparison.verdict === 'differ' ? [`computation № ${r.id}: ${comparison.differing} of ${comparison.rows.length} declared values of ${comparison.column} differ from the recomputed ones (${comparison.tolerance})`] : []
+  })
   const status: FigureStatus = failed.length
     ? { word: 'failed', detail: `computation ${failed.map(r => `№ ${r.id}`).join(', ')} ${failed[0]!.status}: ${failed[0]!.error ?? ''}`.trim() }
     : waiting.length || drawn.length < figure.computationIds.length
       ? { word: 'queued', detail: `waiting for computation ${waiting.map(r => `№ ${r.id}`).join(', ') || 'results'}` }
-      : { word: 'current' }
+      : drifted.length
+        ? { word: 'drifted', detail: drifted.join('; ') }
+        : { word: 'current' }
   if (drawn.length < figure.computationIds.length) return { status, tables: drawn, spec: null, problem: null }
   try {
     const spec = findFigureTemplate(figure.template)!.build(drawn, { title: figure.title, ...figure.options })

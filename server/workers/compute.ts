@@ -128,6 +128,7 @@ export async function compute(input: ComputeInput): Promise<ComputeResult> {
     throw error
   }
   report('done')
+  if (spec.perConfiguration && rows.length > 0) Object.assign(aggregates, meansWithErrors(rows))
   const names = [...new Set(rows.flatMap(r => Object.keys(r)))]
   return {
     ok: true,
@@ -142,6 +143,23 @@ export async function compute(input: ComputeInput): Promise<ComputeResult> {
       notes,
     },
   }
+}
+
+/** Mean and standard error (s/√M) across configurations of every numeric column (common practice). */
+function meansWithErrors(rows: Array<Record<string, Cell>>): Record<string, Cell> {
+  const out: Record<string, Cell> = { configurations: rows.length }
+  const names = [...new Set(rows.flatMap(r => Object.keys(r)))].filter(n => n !== 'ensemble' && n !== 'configuration' && !n.startsWith('label.'))
+  for (const name of names) {
+    const values = rows.map(r => r[name]).filter((v): v is number => typeof v === 'number' && Number.isFinite(v))
+    if (values.length !== rows.length) continue
+    const mean = values.reduce((a, b) => a + b, 0) / values.length
+    out[`${name}.mean`] = mean
+    if (values.length > 1) {
+      const variance = values.reduce((a, v) => a + (v - mean) * (v - mean), 0) / (values.length - 1)
+      out[`${name}.stderr`] = Math.sqrt(variance / values.length)
+    }
+  }
+  return out
 }
 
 /** Applies option defaults as the command line does. */

@@ -83,3 +83,33 @@ describe('figures', () => {
     expect(list.body.figures.every(f => f.status.word === 'current')).toBe(true)
   })
 })
+
+describe('declared values', () => {
+  it('compares declared values with the recomputed ones within the stated tolerance, and the figure says drifted when they differ', async () => {
+    const detail = await author.client.get<{ result: { table: { rows: Array<{ g: number }> } } }>(`/api/companions/${slug}/computations/${gId}`)
+    const g = detail.body.result.table.rows.map(r => r.g)
+    const same = await author.client.request('PUT', `/api/companions/${slug}/computations/${gId}/declared`, { column: 'g', values: g, relativeTolerance: 1e-9, absoluteTolerance: 1e-12, source: 'Table 1' })
+    expect(same.status).toBe(200)
+    const agree = await author.client.get<{ comparison: { verdict: string, tolerance: string } }>(`/api/companions/${slug}/computations/${gId}`)
+    expect(agree.body.comparison.verdict).toBe('agree')
+    expect(agree.body.comparison.tolerance).toContain('1e-9')
+    expect((await author.client.get<{ status: { word: string } }>(`/api/companions/${slug}/figures/1`)).body.status.word).toBe('current')
+
+    // One value off by one part in a thousand, with a tolerance of one part in a million.
+    const changed = g.map((v, i) => (i === 4 ? v * (1 + 1e-3) : v))
+    await author.client.request('PUT', `/api/companions/${slug}/computations/${gId}/declared`, { column: 'g', values: changed, relativeTolerance: 1e-6, absoluteTolerance: 0 })
+    const differ = await author.client.get<{ comparison: { verdict: string, differing: number, rows: Array<{ agrees: boolean | null }> } }>(`/api/companions/${slug}/computations/${gId}`)
+    expect(differ.body.comparison.verdict).toBe('differ')
+    expect(differ.body.comparison.differing).toBe(1)
+    expect(differ.body.comparison.rows[4]!.agrees).toBe(false)
+    const figure = await author.client.get<{ status: { word: string, detail: string } }>(`/api/companions/${slug}/figures/1`)
+    expect(figure.body.status.word).toBe('drifted')
+    expect(figure.body.status.detail).toContain('1 of 8')
+  })
+
+  it('refuses a negative tolerance, on its field', async () => {
+    const reply = await author.client.request<{ data: { fields: Record<string, string> } }>('PUT', `/api/companions/${slug}/computations/${gId}/declared`, { column: 'g', values: [1], relativeTolerance: -1 })
+    expect(reply.status).toBe(422)
+    expect(reply.body.data.fields.relativeTolerance).toBeDefined()
+  })
+})

@@ -162,6 +162,7 @@ const rows: Row[] = [
       return status(as, 'POST', `/api/companions/${slug}/computations/${made.body.id}/queue`, {})
     },
   },
+  { route: 'PUT /api/companions/[slug]/computations/[id]/declared', expect: authors(200), call: as => status(as, 'PUT', `/api/companions/${slug}/computations/${computationId}/declared`, { column: 'H', values: [1], relativeTolerance: 1e-6 }) },
   { route: 'GET /api/figure-templates', expect: all(200), call: as => status(as, 'GET', '/api/figure-templates') },
   { route: 'GET /api/companions/[slug]/figures', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/figures`) },
   { route: 'POST /api/companions/[slug]/figures', expect: authors(201), call: as => status(as, 'POST', `/api/companions/${slug}/figures`, { title: `by ${as}`, template: 'energy-expansion', computationIds: [computationId] }) },

@@ -5,5 +5,6 @@ export default defineEventHandler(async (event) => {
   const { companion } = await requireCompanionRole(event, slug, 'reader')
   const computation = await findComputation(companion.id, id)
   const result = await computationResult(computation.resultId)
-  return { computation, result }
+  const comparison = computation.declared && result ? compareDeclared(computation.declared, result.table.rows) : null
+  return { computation, result, comparison }
 })

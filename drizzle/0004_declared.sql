@@ -1,0 +1,1 @@
+ALTER TABLE `computation` ADD `declared` json;
