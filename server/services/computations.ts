@@ -8,6 +8,7 @@ import { ENGINE_VERSION } from '#shared/physics/version'
 import type { CompanionRow } from '#shared/types/db'
 import { checkParameters, findQuantity } from '../../cli/catalogue'
 import type { ComputeInput, ComputeResult } from '../workers/compute'
+import { commitChange } from './manifest'
 
 const MAX_ATTEMPTS = 3
 
@@ -20,7 +21,7 @@ function canonical(value: unknown): unknown {
 }
 
 /** The hash of everything a result depends on: quantity, parameters, each ensemble's bytes and setting, engine version. */
-export function inputHashFor(quantity: string, parameters: Record<string, unknown>, ensembles: EnsembleRow[]): string {
+export function inputHashFor(quantity: string, parameters: Record<string, unknown>, ensembles: Array<Pick<EnsembleRow, 'sha256' | 'setting'>>): string {
   const text = JSON.stringify(canonical({
     quantity,
     parameters,
@@ -36,7 +37,7 @@ async function ensemblesOf(companionId: number, ids: number[]): Promise<Ensemble
   return ids.map(id => rows.find(r => r.id === id)).filter((r): r is EnsembleRow => r !== undefined)
 }
 
-async function resultFor(hash: string) {
+export async function resultFor(hash: string) {
   const [row] = await useDB().select({ id: tables.computationResults.id }).from(tables.computationResults).where(eq(tables.computationResults.inputHash, hash)).limit(1)
   return row?.id
 }
@@ -52,20 +53,23 @@ export async function createComputation(companion: CompanionRow, user: User, inp
   }
   const inputHash = inputHashFor(spec.id, checked.values, ensembles)
   const resultId = await resultFor(inputHash)
-  const [row] = await useDB().insert(tables.computations).values({
-    companionId: companion.id,
-    name: input.name,
-    quantity: spec.id,
-    parameters: checked.values as Record<string, string | number | boolean>,
-    ensembleIds: input.ensembleIds,
-    status: resultId ? 'current' : 'queued',
-    inputHash,
-    resultId: resultId ?? null,
-    progress: resultId ? 1 : 0,
-    progressNote: resultId ? 'the same inputs were computed before; that result is reused' : '',
-    createdBy: user.id,
-  }).$returningId()
-  return { id: row!.id, status: resultId ? 'current' : 'queued', reused: Boolean(resultId) }
+  const { result: id } = await commitChange(companion, user, async (tx) => {
+    const [row] = await tx.insert(tables.computations).values({
+      companionId: companion.id,
+      name: input.name,
+      quantity: spec.id,
+      parameters: checked.values as Record<string, string | number | boolean>,
+      ensembleIds: input.ensembleIds,
+      status: resultId ? 'current' : 'queued',
+      inputHash,
+      resultId: resultId ?? null,
+      progress: resultId ? 1 : 0,
+      progressNote: resultId ? 'the same inputs were computed before; that result is reused' : '',
+      createdBy: user.id,
+    }).$returningId()
+    return { result: row!.id, message: `Add computation ${row!.id} «${input.name}»: ${spec.id} over ensemble${input.ensembleIds.length === 1 ? '' : 's'} ${input.ensembleIds.join(', ')}` }
+  })
+  return { id, status: resultId ? 'current' : 'queued', reused: Boolean(resultId) }
 }
 
 export async function listComputations(companionId: number) {

@@ -1,37 +1,16 @@
 // Ensembles: storing an upload atomically (object, rows and manifest commit, or none of them),
 // changing what an ensemble declares, removing it, and rebuilding rows from a restored revision.
 import { createReadStream } from 'node:fs'
-import { resolve } from 'node:path'
 import type { User } from 'lucia'
 import type { CompanionRow } from '#shared/types/db'
 import type { EnsembleSettingInput } from '#shared/utils/ensemble'
 import type { EnsembleSettingRecord } from '../db/schema'
-import type { AppDatabase } from '../utils/db'
-import type { Manifest, ManifestEnsemble } from '../utils/revisions'
 import { parsePotential } from '#shared/physics/potentials/expression'
 import { EngineInputError } from '#shared/physics/errors'
 import { requeueAffected } from './computations'
+import { commitChange, repositoryDirectory, revisionProblem } from './manifest'
 
-type Transaction = Parameters<Parameters<AppDatabase['transaction']>[0]>[0]
-type Reader = AppDatabase | Transaction
-
-export function repositoryDirectory(companionId: number): string {
-  return resolve(useRuntimeConfig().dataPath, 'repositories', String(companionId))
-}
-
-/** The commit author for an account (git forbids angle brackets and line breaks in names). */
-export function authorOf(user: Pick<User, 'displayName' | 'email'>) {
-  return { name: user.displayName.replace(/[<>\r\n]+/g, ' ').trim() || 'Quillfield member', email: user.email }
-}
-
-/** A revision error as the HTTP answer it stands for. */
-export function revisionProblem(error: unknown): never {
-  if (error instanceof RevisionError) {
-    const status = error.code === 'unknown-revision' || error.code === 'no-repository' ? 404 : error.code.startsWith('invalid') ? 400 : 500
-    throw createError({ statusCode: status, statusMessage: status === 404 ? 'No revision by that id in this companion.' : error.message })
-  }
-  throw error
-}
+export { repositoryDirectory, revisionProblem } from './manifest'
 
 /** Checks the potential text with the engine's expression parser; a 422 on the field otherwise. */
 export function checkPotential(setting: Pick<EnsembleSettingInput, 'potential' | 'geometry'>): void {
@@ -54,65 +33,6 @@ function settingRecord(input: EnsembleSettingInput): EnsembleSettingRecord {
     convention: input.convention,
     labels: input.labels,
   }
-}
-
-/** The manifest of a companion as its rows say now. */
-export async function buildManifest(db: Reader, companion: Pick<CompanionRow, 'id' | 'slug' | 'title'>): Promise<Manifest> {
-  const e = tables.ensembles
-  const c = tables.ensembleConfigurations
-  const rows = await db.select().from(e).where(eq(e.companionId, companion.id)).orderBy(asc(e.id))
-  const configurations = rows.length
-    ? await db.select().from(c).where(inArray(c.ensembleId, rows.map(r => r.id))).orderBy(asc(c.ensembleId), asc(c.position))
-    : []
-  const ensembles: ManifestEnsemble[] = rows.map(row => ({
-    id: row.id,
-    name: row.name,
-    description: row.description,
-    fileName: row.fileName,
-    format: row.format,
-    sha256: row.sha256,
-    sizeBytes: row.sizeBytes,
-    objectKey: row.objectKey,
-    geometry: row.setting.geometry,
-    kernel: row.setting.kernel,
-    potential: row.setting.potential,
-    beta: row.setting.beta,
-    convention: row.setting.convention,
-    labels: row.setting.labels,
-    configurations: configurations.filter(x => x.ensembleId === row.id).map(x => ({
-      index: x.position, N: x.n, d: x.d, checksum: x.checksum, labels: x.labels,
-      bbox: x.bbox, minDistance: x.minDistance,
-    })),
-  }))
-  return { format: 'quillfield-manifest', version: 1, companion: { slug: companion.slug, title: companion.title }, ensembles }
-}
-
-/** Runs a change of rows together with its manifest commit: both land, or neither does. */
-export async function commitChange<T>(
-  companion: CompanionRow,
-  user: Pick<User, 'displayName' | 'email'>,
-  change: (tx: Transaction) => Promise<{ result: T, message: string }>,
-): Promise<{ result: T, revision: string }> {
-  const dir = repositoryDirectory(companion.id)
-  const author = authorOf(user)
-  return withRepositoryLock(dir, async () => {
-    await openRepository(dir, { author, companion: { slug: companion.slug, title: companion.title } })
-    const before = await headOid(dir)
-    let committed = false
-    try {
-      return await useDB().transaction(async (tx) => {
-        const { result, message } = await change(tx)
-        const manifest = await buildManifest(tx, companion)
-        const commit = await commitManifest(dir, manifest, { author, message })
-        committed = commit.changed
-        return { result, revision: commit.oid }
-      })
-    }
-    catch (error) {
-      if (committed && before) await resetTo(dir, before)
-      rethrowUnavailable(error, 'The database')
-    }
-  })
 }
 
 interface ParsedUpload {

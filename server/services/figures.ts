@@ -7,6 +7,10 @@ import { findFigureTemplate, figureTemplates } from '#shared/figures/templates'
 import type { FigureStatus, ResultTable } from '#shared/figures/types'
 import { EngineInputError } from '#shared/physics/errors'
 import type { CompanionRow } from '#shared/types/db'
+import { commitChange, repositoryDirectory, revisionProblem } from './manifest'
+import { inputHashFor, resultFor } from './computations'
+import { overlay } from '#shared/figures/overlay'
+import type { EnsembleSettingRecord } from '../db/schema'
 
 export function templateCatalogue() {
   return figureTemplates.map(t => ({ id: t.id, title: t.title, quantities: t.quantities, parameters: t.parameters }))
@@ -24,12 +28,13 @@ export async function createFigure(companion: CompanionRow, user: User, input: {
   if (wrong.length) {
     throw createError({ statusCode: 422, statusMessage: `The template «${template.title}» draws ${template.quantities.join(', ')}; computation ${wrong.map(w => `№ ${w.id} (${w.quantity})`).join(', ')} is not one of them.`, data: { fields: { computationIds: 'Choose computations of a quantity this template draws.' } } })
   }
-  return useDB().transaction(async (tx) => {
+  const { result: number } = await commitChange(companion, user, async (tx) => {
     const [last] = await tx.select({ n: sql<number>`COALESCE(MAX(${tables.figures.number}), 0)` }).from(tables.figures).where(eq(tables.figures.companionId, companion.id))
-    const number = Number(last?.n ?? 0) + 1
-    await tx.insert(tables.figures).values({ companionId: companion.id, number, title: input.title, caption: input.caption, template: template.id, computationIds: input.computationIds, options: input.options, createdBy: user.id })
-    return { number }
+    const next = Number(last?.n ?? 0) + 1
+    await tx.insert(tables.figures).values({ companionId: companion.id, number: next, title: input.title, caption: input.caption, template: template.id, computationIds: input.computationIds, options: input.options, createdBy: user.id })
+    return { result: next, message: `Add figure ${next} «${input.title}» (${template.title})` }
   })
+  return { number }
 }
 
 export async function listFigures(companionId: number) {
@@ -95,4 +100,31 @@ export async function drawFigure(figure: typeof tables.figures.$inferSelect): Pr
     if (error instanceof EngineInputError) return { status: { word: 'failed', detail: error.message }, tables: drawn, spec: null, problem: error.message }
     throw error
   }
+}
+
+/** The figure as it was drawn at a revision — its computations on that revision's ensembles, whose
+ *  results are found by their input hash — overlaid on the figure as it is now. */
+export async function overlayWithRevision(figure: typeof tables.figures.$inferSelect, oid: string): Promise<TopLevelSpec> {
+  const manifest = await readManifest(repositoryDirectory(figure.companionId), oid).catch(revisionProblem)
+  const now = await drawFigure(figure)
+  if (!now.spec) throw createError({ statusCode: 409, statusMessage: `Figure ${figure.number} cannot be drawn now: ${now.status.detail ?? now.status.word}.` })
+  const c = tables.computations
+  const rows = await useDB().select().from(c).where(and(eq(c.companionId, figure.companionId), inArray(c.id, figure.computationIds)))
+  const then: ResultTable[] = []
+  for (const id of figure.computationIds) {
+    const row = rows.find(r => r.id === id)
+    if (!row) throw createError({ statusCode: 404, statusMessage: `Computation ${id} of this figure no longer exists.` })
+    const ensembles = row.ensembleIds.map((eid) => {
+      const e = manifest.ensembles.find(x => x.id === eid)
+      if (!e) throw createError({ statusCode: 409, statusMessage: `Revision ${oid.slice(0, 8)} has no ensemble ${eid}, which computation ${id} uses.` })
+      return { sha256: e.sha256, setting: { geometry: e.geometry, kernel: e.kernel, potential: e.potential, beta: e.beta, convention: e.convention, labels: e.labels } as EnsembleSettingRecord }
+    })
+    const resultId = await resultFor(inputHashFor(row.quantity, row.parameters, ensembles))
+    const [result] = resultId ? await useDB().select().from(tables.computationResults).where(eq(tables.computationResults.id, resultId)).limit(1) : []
+    if (!result) throw createError({ statusCode: 409, statusMessage: `Computation ${id} was not computed on the data of revision ${oid.slice(0, 8)}, so there is nothing to overlay; queue it on that revision first.` })
+    then.push({ computation: row.name, quantity: row.quantity, columns: result.table.columns, rows: result.table.rows, aggregates: [], convention: result.table.convention, engineVersion: result.engineVersion, inputHash: result.inputHash })
+  }
+  const template = findFigureTemplate(figure.template)!
+  const before = template.build(then, { title: figure.title, ...figure.options })
+  return overlay(before, now.spec, [`revision ${oid.slice(0, 8)}`, 'now'])
 }

@@ -55,6 +55,10 @@ export interface Manifest {
   version: 1
   companion: { slug: string, title: string }
   ensembles: ManifestEnsemble[]
+  /** Computations (their definitions; results are found again from the inputs' hash). */
+  computations?: Array<{ id: number, name: string, quantity: string, parameters: Record<string, unknown>, ensembleIds: number[] }>
+  /** Figures, numbered within the companion. */
+  figures?: Array<{ number: number, title: string, caption: string, template: string, computationIds: number[], options: Record<string, unknown> }>
 }
 
 export interface RevisionAuthor {

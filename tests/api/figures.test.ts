@@ -113,3 +113,32 @@ describe('declared values', () => {
     expect(reply.body.data.fields.relativeTolerance).toBeDefined()
   })
 })
+
+describe('figures across revisions', () => {
+  it('records computations and figures in the revisions, and overlays a figure from an earlier revision on the current one', async () => {
+    const history = await author.client.get<{ revisions: Array<{ oid: string, message: string }> }>(`/api/companions/${slug}/revisions`)
+    const withFigure = history.body.revisions.find(r => r.message.startsWith('Add figure 1'))!
+    expect(withFigure).toBeDefined()
+    const opened = history.body.revisions.at(-1)!
+    const diff = await author.client.get<{ diff: { lines: string[] } }>(`/api/companions/${slug}/revisions/diff?from=${opened.oid}&to=${withFigure.oid}`)
+    expect(diff.body.diff.lines.join('\n')).toMatch(/Figure 1 «Pair correlation of the spiral» added/)
+    expect(diff.body.diff.lines.join('\n')).toMatch(/Computation \d+ «g\(r\)» added/)
+
+    // Change what the ensemble declares: the computation is queued again and recomputed on the new inputs.
+    const list = await author.client.get<{ ensembles: Array<{ id: number }> }>(`/api/companions/${slug}/ensembles`)
+    await author.client.patch(`/api/companions/${slug}/ensembles/${list.body.ensembles[0]!.id}`, { labels: { note: 'relabelled' } })
+    for (let i = 0; i < 100; i++) {
+      const c = await author.client.get<{ computation: { status: string } }>(`/api/companions/${slug}/computations/${gId}`)
+      if (c.body.computation.status === 'current') break
+      await new Promise(resolve => setTimeout(resolve, 200))
+    }
+    const overlaid = await author.client.get<{ spec: { data?: { values: Array<{ revision: string }> } } }>(`/api/companions/${slug}/figures/1/overlay?revision=${withFigure.oid}`)
+    expect(overlaid.status).toBe(200)
+    const labels = new Set(JSON.stringify(overlaid.body.spec).match(/revision [0-9a-f]{8}|"now"/g))
+    expect(labels.size).toBe(2)
+
+    const tooEarly = await author.client.get<{ message: string }>(`/api/companions/${slug}/figures/1/overlay?revision=${opened.oid}`)
+    expect(tooEarly.status).toBe(409)
+    expect(tooEarly.body.message).toMatch(/has no ensemble/)
+  })
+})

@@ -21,6 +21,7 @@ let ensembleId = 0
 let firstRevision = ''
 let lastRevision = ''
 let computationId = 0
+let figureRevision = ''
 
 function clientFor(as: Role): ApiClient {
   if (as === 'anonymous') return new ApiClient()
@@ -167,6 +168,7 @@ const rows: Row[] = [
   { route: 'GET /api/companions/[slug]/figures', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/figures`) },
   { route: 'POST /api/companions/[slug]/figures', expect: authors(201), call: as => status(as, 'POST', `/api/companions/${slug}/figures`, { title: `by ${as}`, template: 'energy-expansion', computationIds: [computationId] }) },
   { route: 'GET /api/companions/[slug]/figures/[number]', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/figures/1`) },
+  { route: 'GET /api/companions/[slug]/figures/[number]/overlay', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/figures/1/overlay?revision=${figureRevision}`) },
   { route: 'GET /files/[slug]/figures/[number]', expect: readers(200), call: as => status(as, 'GET', `/files/${slug}/figures/1?format=svg`) },
   { route: 'GET /api/admin/users', expect: adminsOnly(200), call: as => status(as, 'GET', '/api/admin/users') },
   {
@@ -208,6 +210,8 @@ beforeAll(async () => {
   }
   const figure = await accounts.editor.client.post(`/api/companions/${slug}/figures`, { title: 'fixture figure', template: 'pair-correlation', computationIds: [g.body.id] })
   if (figure.status !== 201) throw new Error(`fixture figure not made: ${figure.status}`)
+  const revisions = await accounts.editor.client.get<{ revisions: Array<{ oid: string }> }>(`/api/companions/${slug}/revisions`)
+  figureRevision = revisions.body.revisions[0]!.oid
 })
 
 describe('role matrix', () => {

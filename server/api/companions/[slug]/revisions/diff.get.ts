@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { repositoryDirectory, revisionProblem } from '../../../../services/ensembles'
+import { definitionLines, repositoryDirectory, revisionProblem } from '../../../../services/manifest'
 
 const query = z.object({ from: z.string().regex(/^[0-9a-f]{40}$/, 'Give a revision id.'), to: z.string().regex(/^[0-9a-f]{40}$/, 'Give a revision id.') })
 
@@ -7,5 +7,8 @@ export default defineEventHandler(async (event) => {
   const { slug } = readParamsWith(event, slugParams)
   const { from, to } = readQueryWith(event, query)
   const { companion } = await requireCompanionRole(event, slug, 'reader')
-  return { diff: await diffRevisions(repositoryDirectory(companion.id), from, to).catch(revisionProblem) }
+  const dir = repositoryDirectory(companion.id)
+  const diff = await diffRevisions(dir, from, to).catch(revisionProblem)
+  const [a, b] = await Promise.all([readManifest(dir, from), readManifest(dir, to)]).catch(revisionProblem)
+  return { diff: { ...diff, lines: [...diff.lines, ...definitionLines(a, b)] } }
 })

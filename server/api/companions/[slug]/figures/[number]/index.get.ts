@@ -1,4 +1,4 @@
-import { drawFigure, findFigure } from '../../../../services/figures'
+import { drawFigure, findFigure } from '../../../../../services/figures'
 
 export default defineEventHandler(async (event) => {
   const { slug, number } = readParamsWith(event, figureParams)
