@@ -70,6 +70,8 @@ async function main() {
       NUXT_DATABASE_URL: testDatabaseUrl,
       NUXT_DEPLOYMENT: 'test',
       NUXT_TRUST_PROXY: 'true',
+      // The test server only answers requests; tests that need computations start a runner (tests/support/runner.ts).
+      NUXT_RUN_JOBS: 'false',
       QF_BASE_URL: baseUrl,
       QF_CHROMIUM: existsSync('/usr/bin/chromium') ? '/usr/bin/chromium' : which('chromium') ?? '',
     }

@@ -1,8 +1,10 @@
 // Figures end to end: a computation's result drawn with one of our templates, its status, and the
 // server's SVG, PNG and column-sized SVG.
-import { beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { planeSetting, signUp, uniqueName } from '../support/http'
 import type { TestAccount } from '../support/http'
+import { startRunner } from '../support/runner'
+import type { Runner } from '../support/runner'
 
 let author: TestAccount
 let slug = ''
@@ -28,7 +30,10 @@ function spiral(N: number): string {
   return `${rows.join('\n')}\n`
 }
 
+let runner: Runner
+
 beforeAll(async () => {
+  runner = await startRunner()
   author = await signUp('figures')
   slug = uniqueName('fig-')
   await author.client.post('/api/companions', { title: 'Figure tests', slug })
@@ -140,5 +145,34 @@ describe('figures across revisions', () => {
     const tooEarly = await author.client.get<{ message: string }>(`/api/companions/${slug}/figures/1/overlay?revision=${opened.oid}`)
     expect(tooEarly.status).toBe(409)
     expect(tooEarly.body.message).toMatch(/has no ensemble/)
+  })
+})
+
+afterAll(async () => {
+  await runner?.stop()
+})
+
+describe('the figure follows its data', () => {
+  it('has an SVG that carries the recomputed values, and goes through queued to current when its ensemble changes', async () => {
+    const figure = await author.client.get<{ tables: Array<{ rows: Array<{ r: number, g: number }> }> }>(`/api/companions/${slug}/figures/2`)
+    const svg = await (await fetch(`${process.env.QF_BASE_URL}/files/${slug}/figures/2?format=svg`, { headers: { cookie: author.client.cookie } })).text()
+    // Vega writes each point's values into its aria-label, to 12 significant digits: every
+    // recomputed (r, g) pair is in the SVG.
+    const twelve = (v: number) => String(Number(v.toPrecision(12)))
+    const drawn = figure.body.tables[0]!.rows.filter(row => row.g > 0)
+    expect(drawn.length).toBeGreaterThan(3)
+    for (const row of drawn) expect(svg).toContain(`r: ${twelve(row.r)}; g: ${twelve(row.g)};`)
+    const list = await author.client.get<{ ensembles: Array<{ id: number }> }>(`/api/companions/${slug}/ensembles`)
+    await author.client.patch(`/api/companions/${slug}/ensembles/${list.body.ensembles[0]!.id}`, { labels: { note: 'relabelled again' } })
+    const seen: string[] = []
+    for (let i = 0; i < 150; i++) {
+      const f = await author.client.get<{ status: { word: string } }>(`/api/companions/${slug}/figures/2`)
+      if (seen.at(-1) !== f.body.status.word) seen.push(f.body.status.word)
+      if (f.body.status.word !== 'queued' && seen.includes('queued')) break
+      await new Promise(resolve => setTimeout(resolve, 100))
+    }
+    // Queued while recomputing, then current — or drifted, since an earlier test declared values that differ.
+    expect(seen[0]).toBe('queued')
+    expect(['current', 'drifted']).toContain(seen.at(-1))
   })
 })

@@ -2,9 +2,11 @@
 // without a row here fails the coverage check at the bottom.
 import { readdirSync, statSync } from 'node:fs'
 import { join, relative } from 'node:path'
-import { beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient, makeAdmin, planeSetting, signUp, uniqueCsv, uniqueName } from '../support/http'
 import type { TestAccount } from '../support/http'
+import { startRunner } from '../support/runner'
+import type { Runner } from '../support/runner'
 
 const roles = ['anonymous', 'member', 'reader', 'reviewer', 'author', 'editor', 'admin'] as const
 type Role = typeof roles[number]
@@ -178,7 +180,10 @@ const rows: Row[] = [
   },
 ]
 
+let runner: Runner
+
 beforeAll(async () => {
+  runner = await startRunner()
   for (const role of roles) {
     if (role !== 'anonymous') accounts[role] = await signUp(`matrix-${role}`)
   }
@@ -244,4 +249,8 @@ describe('role matrix coverage', () => {
     expect(onDisk.length).toBeGreaterThan(10)
     expect(rows.map(r => r.route).sort()).toEqual(onDisk)
   })
+})
+
+afterAll(async () => {
+  await runner?.stop()
 })

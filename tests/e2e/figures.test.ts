@@ -5,13 +5,18 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import { launchBrowser } from '../support/browser'
 import { baseUrl, planeSetting, signUp, uniqueName } from '../support/http'
+import { startRunner } from '../support/runner'
+import type { Runner } from '../support/runner'
 
 let browser: Browser
 let page: Page
 const slug = uniqueName('figure-')
 const shots = 'tests/.artifacts/screenshots'
 
+let runner: Runner
+
 beforeAll(async () => {
+  runner = await startRunner()
   mkdirSync(shots, { recursive: true })
   const author = await signUp('plotter')
   await author.client.post('/api/companions', { title: 'Figure journey', slug })
@@ -25,6 +30,9 @@ beforeAll(async () => {
     await new Promise(resolve => setTimeout(resolve, 200))
   }
   await author.client.post(`/api/companions/${slug}/figures`, { title: 'Pair correlation of a spiral', template: 'pair-correlation', computationIds: [g.body.id], caption: 'An evenly spread spiral of 500 points.' })
+  const big = ['x,y']
+  for (let i = 0; i < 45_000; i++) big.push(`${Math.sqrt((i + 0.5) / 45_000) * Math.cos(i * 2.399963229728653)},${Math.sqrt((i + 0.5) / 45_000) * Math.sin(i * 2.399963229728653)}`)
+  await author.client.upload(`/api/companions/${slug}/ensembles`, planeSetting('large spiral'), 'large.csv', `${big.join('\n')}\n`)
   browser = await launchBrowser()
   const context = await browser.newContext({ baseURL: baseUrl })
   const [name, value] = author.client.cookie.split('=')
@@ -33,6 +41,7 @@ beforeAll(async () => {
 })
 
 afterAll(async () => {
+  await runner?.stop()
   await browser?.close()
 })
 
@@ -49,4 +58,32 @@ describe('a live figure', () => {
     await expect(page.getByTestId('figure-data-table').locator('tbody tr').count()).resolves.toBe(10)
     await page.screenshot({ path: `${shots}/figure.png`, fullPage: true })
   })
+
+  it('shows a point\'s values when the pointer rests on it', async () => {
+    const points = page.locator('[data-testid="figure-chart"] .mark-symbol path')
+    await points.nth(6).hover()
+    const tooltip = page.locator('#vg-tooltip-element.visible')
+    await tooltip.waitFor({ timeout: 10_000 })
+    await expect(tooltip.textContent()).resolves.toMatch(/g/)
+    await expect(tooltip.textContent()).resolves.toMatch(/\d\.\d/)
+  })
+
+  it('watches a progress bar complete while a long computation runs', async () => {
+    await page.goto(`/c/${slug}/computations`)
+    await page.locator('html[data-ready="true"]').waitFor()
+    const id = await page.evaluate(async (s) => {
+      const list = await (await fetch(`/api/companions/${s}/ensembles`)).json() as { ensembles: Array<{ id: number, name: string }> }
+      const large = list.ensembles.find(e => e.name === 'large spiral')!
+      const made = await fetch(`/api/companions/${s}/computations`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ name: 'long energy', quantity: 'energy', ensembleIds: [large.id], parameters: {} }) })
+      return ((await made.json()) as { id: number }).id
+    }, slug)
+    await page.reload()
+    await page.locator('html[data-ready="true"]').waitFor()
+    const bar = page.getByTestId(`computation-progress-${id}`)
+    await bar.waitFor({ timeout: 10_000 })
+    await page.screenshot({ path: `${shots}/computation-progress.png` })
+    await bar.waitFor({ state: 'detached', timeout: 90_000 })
+    await page.reload()
+    await expect(page.getByTestId('computation-list').textContent()).resolves.toMatch(/long energy[\s\S]*current/)
+  }, 120_000)
 })
