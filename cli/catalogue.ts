@@ -39,6 +39,14 @@ const statistics: Array<[string, string, string[]]> = [
 export const catalogue: QuantitySpec[] = [
   { id: 'energy', title: 'Energy H_N, pair sum and confinement', command: 'energy', fixed: {}, parameters: optionsOf('energy'), perConfiguration: true },
   { id: 'next-order', title: 'Next-order energy F_N, splitting residual and electric energy', command: 'next-order', fixed: {}, parameters: optionsOf('next-order'), perConfiguration: true },
+  {
+    id: 'partition',
+    title: 'log Z: exact for the Gaussian β-ensemble and the β = 2 plasma, with the large-N expansion',
+    command: 'logz',
+    fixed: {},
+    parameters: optionsOf('logz').filter(o => o.name === 'ensemble' || o.name === 'expansion'),
+    perConfiguration: true,
+  },
   ...statistics.map(([statistic, title, keep]) => ({
     id: `statistic:${statistic}`,
     title,

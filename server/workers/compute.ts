@@ -10,6 +10,8 @@ import { conventionLabel } from '../../shared/physics/conventions'
 import type { EnergyConvention } from '../../shared/physics/conventions'
 import { EngineInputError } from '../../shared/physics/errors'
 import { readStoredEnsemble } from '../../shared/physics/formats/stored'
+import { parsePotential } from '../../shared/physics/potentials/expression'
+import { withRecognisedPreset } from '../../shared/physics/potentials/recognise'
 import type { Kernel } from '../../shared/physics/types'
 import { ENGINE_VERSION } from '../../shared/physics/version'
 
@@ -22,6 +24,7 @@ export interface ComputeEnsemble {
     geometry: { kind: 'free' | 'torus' | 'sphere', d?: number, L?: number }
     kernel: Kernel
     potential: string | null
+    beta?: number | null
     convention: EnergyConvention
   }
 }
@@ -106,10 +109,12 @@ export async function compute(input: ComputeInput): Promise<ComputeResult> {
       const base: OptionValues = { ...input.parameters, ...spec.fixed, ...settingArgs(e), input: e.fileName }
       if (spec.command === 'energy' && base.convention === undefined) base.convention = JSON.stringify(e.setting.convention)
       conventions.add(conventionLabel(e.setting.convention, e.setting.kernel, e.setting.geometry.d ?? 2))
-      const M = spec.perConfiguration ? readStoredEnsemble(e.bytes, e.fileName).ensemble.configurations.length : 1
+      const stored = spec.perConfiguration ? readStoredEnsemble(e.bytes, e.fileName).ensemble : undefined
+      const M = stored ? stored.configurations.length : 1
       for (let k = 0; k < M; k++) {
         report(`${e.name}: ${spec.perConfiguration ? `configuration ${k + 1} of ${M}` : 'all configurations'}`)
-        const args = parse(command.options, spec.perConfiguration ? { ...base, configuration: k } : base)
+        const perConfiguration = spec.command === 'logz' ? partitionArgs(e, stored!.configurations[k]!.N, stored!.d, base) : { ...base, configuration: k }
+        const args = parse(command.options, spec.perConfiguration ? perConfiguration : base)
         const result = await command.run(args, io) as Record<string, unknown>
         if (spec.perConfiguration) rows.push({ ensemble: e.id, ...rowOf(result) })
         else {
@@ -160,6 +165,14 @@ function meansWithErrors(rows: Array<Record<string, Cell>>): Record<string, Cell
     }
   }
   return out
+}
+
+/** log Z needs N, β, a and the convention from the ensemble: the closed forms are for V = a|x|². */
+function partitionArgs(e: ComputeEnsemble, N: number, d: number, base: OptionValues): OptionValues {
+  if (e.setting.beta === null || e.setting.beta === undefined) throw new EngineInputError(`ensemble ${e.id} declares no β; log Z needs one`)
+  const potential = e.setting.potential ? withRecognisedPreset(parsePotential(e.setting.potential, { d })) : undefined
+  if (potential?.preset?.name !== 'quadratic') throw new EngineInputError(`the exact log Z is known for V = a|x|²; ensemble ${e.id} declares V = ${e.setting.potential ?? 'none'}`)
+  return { ...base, n: N, beta: e.setting.beta, a: potential.preset.a, convention: JSON.stringify(e.setting.convention), ensemble: base.ensemble ?? (d === 1 ? 'gaussian' : 'ginibre') }
 }
 
 /** Applies option defaults as the command line does. */

@@ -62,6 +62,14 @@ describe('computations', () => {
     expect(detail.result!.table.convention).toContain('Σ_{i≠j}')
   })
 
+  it('gives log Z of the β = 2 plasma for each configuration, as the command line does (Ginibre 1965)', async () => {
+    const { id } = await create({ name: 'log Z', quantity: 'partition', ensembleIds: [ensembleId], parameters: { expansion: false } })
+    const detail = await waitFor(id, ended)
+    expect(detail.computation.status, detail.computation.error ?? '').toBe('current')
+    const cli = await runEngine(['logz', '--ensemble', 'ginibre', '--n', '40', '--beta', '2', '--expansion=false'], { readFile: () => new Uint8Array(), writeFile: () => undefined })
+    expect(detail.result!.table.rows[0]!.logZ).toBe((JSON.parse(cli.stdout) as { logZ: number }).logZ)
+  })
+
   it('never computes identical inputs twice', async () => {
     const first = await create({ name: 'next order', quantity: 'next-order', ensembleIds: [ensembleId], parameters: { eta: 'fixed:0.001' } })
     const a = await waitFor(first.id, ended)
