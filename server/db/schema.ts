@@ -171,6 +171,8 @@ export const figures = mysqlTable('figure', {
   template: varchar('template', { length: 60 }).notNull(),
   computationIds: json('computation_ids').$type<number[]>().notNull(),
   options: json('options').$type<Record<string, string | number | boolean>>().notNull(),
+  // For the template 'custom': the author's Vega-Lite spec, whose data are named computation-<id>.
+  customSpec: json('custom_spec').$type<Record<string, unknown>>(),
   createdBy: varchar('created_by', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,
 }, t => [uniqueIndex('figure_number_unique').on(t.companionId, t.number)])

@@ -8,30 +8,36 @@ import type { FigureStatus, ResultTable } from '#shared/figures/types'
 import { EngineInputError } from '#shared/physics/errors'
 import type { CompanionRow } from '#shared/types/db'
 import { commitChange, repositoryDirectory, revisionProblem } from './manifest'
+import { bindCustomSpec, checkCustomSpec } from './custom-figures'
 import { inputHashFor, resultFor } from './computations'
 import { overlay } from '#shared/figures/overlay'
 import type { EnsembleSettingRecord } from '../db/schema'
 
+const CUSTOM = { id: 'custom', title: 'Your own Vega-Lite spec (data named computation-<id>)', quantities: [] as string[], parameters: [] }
+
 export function templateCatalogue() {
-  return figureTemplates.map(t => ({ id: t.id, title: t.title, quantities: t.quantities, parameters: t.parameters }))
+  return [...figureTemplates.map(t => ({ id: t.id, title: t.title, quantities: t.quantities, parameters: t.parameters })), CUSTOM]
 }
 
-export async function createFigure(companion: CompanionRow, user: User, input: { title: string, caption: string, template: string, computationIds: number[], options: Record<string, string | number | boolean> }) {
-  const template = findFigureTemplate(input.template)
+export async function createFigure(companion: CompanionRow, user: User, input: { title: string, caption: string, template: string, computationIds: number[], options: Record<string, string | number | boolean>, spec?: Record<string, unknown> }) {
+  const custom = input.template === 'custom'
+  if (custom && !input.spec) throw createError({ statusCode: 422, statusMessage: 'A custom figure needs its Vega-Lite spec.', data: { fields: { spec: 'Give the spec.' } } })
+  if (custom) checkCustomSpec(input.spec!, input.computationIds)
+  const template = custom ? { id: 'custom', title: CUSTOM.title, quantities: [] as string[] } : findFigureTemplate(input.template)
   if (!template) throw createError({ statusCode: 422, statusMessage: `There is no figure template ${input.template}.`, data: { fields: { template: 'Choose a template.' } } })
   const c = tables.computations
   const found = await useDB().select({ id: c.id, quantity: c.quantity }).from(c).where(and(eq(c.companionId, companion.id), inArray(c.id, input.computationIds)))
   if (found.length !== input.computationIds.length) {
     throw createError({ statusCode: 422, statusMessage: 'Some of those computations are not in this companion.', data: { fields: { computationIds: 'Choose computations of this companion.' } } })
   }
-  const wrong = found.filter(f => !template.quantities.includes(f.quantity))
+  const wrong = custom ? [] : found.filter(f => !template.quantities.includes(f.quantity))
   if (wrong.length) {
     throw createError({ statusCode: 422, statusMessage: `The template «${template.title}» draws ${template.quantities.join(', ')}; computation ${wrong.map(w => `№ ${w.id} (${w.quantity})`).join(', ')} is not one of them.`, data: { fields: { computationIds: 'Choose computations of a quantity this template draws.' } } })
   }
   const { result: number } = await commitChange(companion, user, async (tx) => {
     const [last] = await tx.select({ n: sql<number>`COALESCE(MAX(${tables.figures.number}), 0)` }).from(tables.figures).where(eq(tables.figures.companionId, companion.id))
     const next = Number(last?.n ?? 0) + 1
-    await tx.insert(tables.figures).values({ companionId: companion.id, number: next, title: input.title, caption: input.caption, template: template.id, computationIds: input.computationIds, options: input.options, createdBy: user.id })
+    await tx.insert(tables.figures).values({ companionId: companion.id, number: next, title: input.title, caption: input.caption, template: template.id, computationIds: input.computationIds, options: input.options, customSpec: custom ? input.spec : null, createdBy: user.id })
     return { result: next, message: `Add figure ${next} «${input.title}» (${template.title})` }
   })
   return { number }
@@ -93,7 +99,9 @@ export async function drawFigure(figure: typeof tables.figures.$inferSelect): Pr
         : { word: 'current' }
   if (drawn.length < figure.computationIds.length) return { status, tables: drawn, spec: null, problem: null }
   try {
-    const spec = findFigureTemplate(figure.template)!.build(drawn, { title: figure.title, ...figure.options })
+    const spec = figure.template === 'custom'
+      ? bindCustomSpec(figure.customSpec ?? {}, drawn.map((t, k) => ({ ...t, id: figure.computationIds[k]! })))
+      : findFigureTemplate(figure.template)!.build(drawn, { title: figure.title, ...figure.options })
     return { status, tables: drawn, spec, problem: null }
   }
   catch (error) {
@@ -124,6 +132,7 @@ export async function overlayWithRevision(figure: typeof tables.figures.$inferSe
     if (!result) throw createError({ statusCode: 409, statusMessage: `Computation ${id} was not computed on the data of revision ${oid.slice(0, 8)}, so there is nothing to overlay; queue it on that revision first.` })
     then.push({ computation: row.name, quantity: row.quantity, columns: result.table.columns, rows: result.table.rows, aggregates: [], convention: result.table.convention, engineVersion: result.engineVersion, inputHash: result.inputHash })
   }
+  if (figure.template === 'custom') throw createError({ statusCode: 409, statusMessage: 'Revisions of a custom figure cannot be overlaid; draw them with one of the templates.' })
   const template = findFigureTemplate(figure.template)!
   const before = template.build(then, { title: figure.title, ...figure.options })
   return overlay(before, now.spec, [`revision ${oid.slice(0, 8)}`, 'now'])

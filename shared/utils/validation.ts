@@ -97,4 +97,6 @@ export const figureCreateSchema = z.object({
   template: z.string().trim().min(1, 'Choose a template.').max(60),
   computationIds: z.array(z.number().int().positive()).min(1, 'Choose at least one computation.').max(20),
   options: z.record(z.string().max(40), z.union([z.string().max(200), z.number(), z.boolean()])).default({}),
+  /** With template 'custom': a Vega-Lite spec whose data sources are named computation-<id>. */
+  spec: z.record(z.string(), z.unknown()).optional(),
 })

@@ -176,3 +176,25 @@ describe('the figure follows its data', () => {
     expect(['current', 'drifted']).toContain(seen.at(-1))
   })
 })
+
+describe('custom figures', () => {
+  it('draws the author\'s own Vega-Lite spec with a computation\'s results as its data', async () => {
+    const spec = { mark: 'point', data: { name: `computation-${gId}` }, encoding: { x: { field: 'r', type: 'quantitative' }, y: { field: 'g', type: 'quantitative' } } }
+    const made = await author.client.post<{ number: number }>(`/api/companions/${slug}/figures`, { title: 'My own view', template: 'custom', computationIds: [gId], spec })
+    expect(made.status).toBe(201)
+    const figure = await author.client.get<{ spec: { data: { values: Array<{ g: number }> }, description: string }, tables: Array<{ rows: Array<{ g: number }> }> }>(`/api/companions/${slug}/figures/${made.body.number}`)
+    expect(figure.body.spec.data.values).toEqual(figure.body.tables[0]!.rows)
+    expect(figure.body.spec.description).toContain('Convention')
+    const svg = await (await fetch(`${process.env.QF_BASE_URL}/files/${slug}/figures/${made.body.number}?format=svg`, { headers: { cookie: author.client.cookie } })).text()
+    expect(svg).toMatch(/^<svg/)
+  })
+
+  it('refuses a spec that would fetch data from elsewhere, or name another computation', async () => {
+    const fetching = await author.client.post<{ data: { fields: Record<string, string> } }>(`/api/companions/${slug}/figures`, { title: 'x', template: 'custom', computationIds: [gId], spec: { mark: 'point', data: { url: 'http://127.0.0.1:1/data.json' } } })
+    expect(fetching.status).toBe(422)
+    expect(fetching.body.data.fields.spec).toMatch(/url/)
+    const other = await author.client.post<{ data: { fields: Record<string, string> } }>(`/api/companions/${slug}/figures`, { title: 'x', template: 'custom', computationIds: [gId], spec: { mark: 'point', data: { name: 'computation-999999' } } })
+    expect(other.status).toBe(422)
+    expect(other.body.data.fields.spec).toMatch(/not one of/)
+  })
+})

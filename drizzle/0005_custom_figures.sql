@@ -1,0 +1,1 @@
+ALTER TABLE `figure` ADD `custom_spec` json;
