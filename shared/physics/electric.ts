@@ -11,7 +11,7 @@
 // a one-dimensional integral over the line density done by adaptive Gauss–Kronrod quadrature
 // (relative tolerance 1e-13). Smeared pair energies: smeared.ts. Sources: Sandier & Serfaty,
 // Ann. Probab. 43 (2015); Petrache & Serfaty, J. Inst. Math. Jussieu 16 (2017); Serfaty,
-// Coulomb Gases and Ginzburg–Landau Vortices, EMS Zurich Lectures in Advanced Mathematics, 2015
+// Coulomb Gases and Ginzburg–Landau Vortices (EMS Publishing House, 2015)
 // (truncation, the choice η_i = min(¼ r_i, N^(−1/d))).
 import { EngineInputError } from './errors'
 import { ENGINE_VERSION } from './version'

@@ -49,7 +49,7 @@ function absEta(u: number, v: number): number {
 }
 
 describe('2-D lattice constants against Kronecker’s first limit formula', () => {
-  // Derivation (Siegel, Lectures on Advanced Analytic Number Theory, 1961, ch. I; Lang,
+  // Derivation (C. L. Siegel, Tata Institute notes on analytic number theory, 1961, ch. I; Lang,
   // Elliptic Functions, 2nd ed. 1987, ch. 20): for a lattice of area 1 with shape τ, the Ewald
   // form of c₀ at α = π equals ½ FP_{s=1}[π^{−s}Γ(s)Z(s)] − (γ + log π)/2 with Z the Epstein zeta
   // function; Kronecker's limit formula Z(s) = π/(s−1) + 2π(γ − log 2 − log(√(Im τ)|η(τ)|²)) + O(s−1)
