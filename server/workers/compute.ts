@@ -10,6 +10,7 @@ import { conventionLabel } from '../../shared/physics/conventions'
 import type { EnergyConvention } from '../../shared/physics/conventions'
 import { EngineInputError } from '../../shared/physics/errors'
 import { readStoredEnsemble } from '../../shared/physics/formats/stored'
+import { writeNpy } from '../../shared/physics/formats/npy'
 import { parsePotential } from '../../shared/physics/potentials/expression'
 import { withRecognisedPreset } from '../../shared/physics/potentials/recognise'
 import type { Kernel } from '../../shared/physics/types'
@@ -100,23 +101,27 @@ export async function compute(input: ComputeInput): Promise<ComputeResult> {
   const aggregates: Record<string, Cell> = {}
   const notes: string[] = []
   const conventions = new Set<string>()
-  const total = input.ensembles.reduce((n, e) => n + (spec.perConfiguration ? Math.max(1, readStoredEnsemble(e.bytes, e.fileName).ensemble.configurations.length) : 1), 0)
+  // Each file is read once; a per-configuration command then gets one configuration at a time, as NPY.
+  const storedEnsembles = spec.perConfiguration ? input.ensembles.map(e => readStoredEnsemble(e.bytes, e.fileName).ensemble) : []
+  const total = spec.perConfiguration ? storedEnsembles.reduce((n, st) => n + st.configurations.length, 0) : input.ensembles.length
   let done = 0
   const report = (note: string) => input.port?.postMessage({ done, total, note })
   try {
-    for (const e of input.ensembles) {
-      const io: EngineIO = { readFile: () => e.bytes, writeFile: () => undefined }
-      const base: OptionValues = { ...input.parameters, ...spec.fixed, ...settingArgs(e), input: e.fileName }
+    for (const [index, e] of input.ensembles.entries()) {
+      const stored = spec.perConfiguration ? storedEnsembles[index] : undefined
+      let current: Uint8Array = e.bytes
+      const io: EngineIO = { readFile: () => current, writeFile: () => undefined }
+      const base: OptionValues = { ...input.parameters, ...spec.fixed, ...settingArgs(e), input: stored ? 'configuration.npy' : e.fileName }
       if (spec.command === 'energy' && base.convention === undefined) base.convention = JSON.stringify(e.setting.convention)
       conventions.add(conventionLabel(e.setting.convention, e.setting.kernel, e.setting.geometry.d ?? 2))
-      const stored = spec.perConfiguration ? readStoredEnsemble(e.bytes, e.fileName).ensemble : undefined
       const M = stored ? stored.configurations.length : 1
       for (let k = 0; k < M; k++) {
         report(`${e.name}: ${spec.perConfiguration ? `configuration ${k + 1} of ${M}` : 'all configurations'}`)
-        const perConfiguration = spec.command === 'logz' ? partitionArgs(e, stored!.configurations[k]!.N, stored!.d, base) : { ...base, configuration: k }
+        if (stored) current = writeNpy(stored.configurations[k]!)
+        const perConfiguration = spec.command === 'logz' ? partitionArgs(e, stored!.configurations[k]!.N, stored!.d, base) : base
         const args = parse(command.options, spec.perConfiguration ? perConfiguration : base)
         const result = await command.run(args, io) as Record<string, unknown>
-        if (spec.perConfiguration) rows.push({ ensemble: e.id, ...rowOf(result) })
+        if (stored) rows.push({ ensemble: e.id, ...rowOf({ ...result, labels: stored.labels[k] ?? {} }), configuration: k })
         else {
           const table = result as { rows?: Array<Record<string, Cell>>, summary?: Record<string, Cell>, notes?: string[], convention?: string }
           for (const r of table.rows ?? []) rows.push({ ensemble: e.id, ...r })
