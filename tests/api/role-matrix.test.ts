@@ -217,6 +217,8 @@ beforeAll(async () => {
   if (figure.status !== 201) throw new Error(`fixture figure not made: ${figure.status}`)
   const revisions = await accounts.editor.client.get<{ revisions: Array<{ oid: string }> }>(`/api/companions/${slug}/revisions`)
   figureRevision = revisions.body.revisions[0]!.oid
+  // The rows below must find computations still queued (cancel, queue again): no runner from here on.
+  await runner.stop()
 })
 
 describe('role matrix', () => {
