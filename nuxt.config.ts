@@ -47,6 +47,19 @@ export default defineNuxtConfig({
     workersDir: '',
     // Trust X-Forwarded-For for the client address (only behind a reverse proxy you run).
     trustProxy: false,
+    // Outgoing mail (NUXT_SMTP_HOST, NUXT_SMTP_PORT, …): the project's SMTP fake unless configured.
+    smtp: {
+      host: '127.0.0.1',
+      port: 3311,
+      secure: false,
+      user: '',
+      pass: '',
+      from: 'Quillfield <no-reply@quillfield.invalid>',
+    },
+    // The SMTP fake's message list (NUXT_MAIL_INBOX_URL); the development inbox page reads it. Empty in production.
+    mailInboxUrl: '',
+    // The address links in e-mail point at (NUXT_SITE_URL); without it, the address the request came to.
+    siteUrl: '',
     auth: {
       failuresPerAccount: 5,
       failuresPerAddress: 30,

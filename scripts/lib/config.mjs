@@ -42,6 +42,14 @@ export const objectStore = {
   endpoint: process.env.QF_S3_ENDPOINT ?? `http://127.0.0.1:${Number(process.env.QF_S3_PORT ?? 3309)}`,
 }
 
+/** E-mail: the local SMTP fake unless QF_SMTP_HOST names a real server. */
+export const mail = {
+  local: !process.env.QF_SMTP_HOST,
+  port: Number(process.env.QF_SMTP_PORT ?? 3311),
+  inboxPort: Number(process.env.QF_SMTP_INBOX_PORT ?? (Number(process.env.QF_SMTP_PORT ?? 3311) + 1)),
+  host: process.env.QF_SMTP_HOST ?? '127.0.0.1',
+}
+
 /** Environment for the application: where its services are. */
 export function serviceEnvironment({ test = false } = {}) {
   return {
@@ -51,6 +59,9 @@ export function serviceEnvironment({ test = false } = {}) {
     NUXT_S3_ACCESS_KEY_ID: process.env.QF_S3_ACCESS_KEY_ID ?? 'S3RVER',
     NUXT_S3_SECRET_ACCESS_KEY: process.env.QF_S3_SECRET_ACCESS_KEY ?? 'S3RVER',
     NUXT_DATA_PATH: join(dataDir, test ? 'app-test' : 'app'),
+    NUXT_SMTP_HOST: mail.host,
+    NUXT_SMTP_PORT: String(process.env.QF_SMTP_HOST ? Number(process.env.QF_SMTP_PORT ?? 587) : mail.port),
+    ...(mail.local ? { NUXT_MAIL_INBOX_URL: `http://127.0.0.1:${mail.inboxPort}` } : {}),
   }
 }
 

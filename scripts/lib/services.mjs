@@ -1,10 +1,10 @@
 // The services the application needs, each with the same idempotent lifecycle:
 // status() → { running, pid, detail }, start() → true when it started it, stop().
-// Later services (object storage fake, SMTP fake) join this list.
 import { mariadb } from './mariadb.mjs'
+import { mailbox } from './mailbox.mjs'
 import { objectstore } from './objectstore.mjs'
 
-export const services = [mariadb, objectstore]
+export const services = [mariadb, objectstore, mailbox]
 
 /** Starts every service; returns the ones this call started (so a caller can stop just those). */
 export async function startServices() {

@@ -2,7 +2,7 @@
 // and sessions are random strings (lucia), companions use auto-increment keys.
 import { relations, sql } from 'drizzle-orm'
 import {
-  bigint, datetime, double, index, int, json, mysqlEnum, mysqlTable, text, timestamp, uniqueIndex, varchar,
+  bigint, boolean, datetime, double, index, int, json, mediumtext, mysqlEnum, mysqlTable, text, timestamp, uniqueIndex, varchar,
 } from 'drizzle-orm/mysql-core'
 
 const timestamps = {
@@ -13,6 +13,8 @@ const timestamps = {
 export const SITE_ROLES = ['admin', 'member'] as const
 export const COMPANION_ROLES = ['reader', 'reviewer', 'author', 'editor'] as const
 export const COMPANION_STATES = ['draft', 'in_review', 'revising', 'accepted', 'published', 'withdrawn'] as const
+export const REMARK_MAIL_PREFERENCES = ['immediate', 'daily', 'none'] as const
+export const LICENSES = ['CC-BY-4.0', 'CC-BY-SA-4.0', 'CC0-1.0', 'ODC-By-1.0'] as const
 
 export const users = mysqlTable('user', {
   id: varchar('id', { length: 40 }).primaryKey(),
@@ -22,6 +24,12 @@ export const users = mysqlTable('user', {
   affiliation: varchar('affiliation', { length: 200 }).notNull().default(''),
   orcid: varchar('orcid', { length: 19 }),
   siteRole: mysqlEnum('site_role', SITE_ROLES).notNull().default('member'),
+  // Set when the owner followed the link of an address-verification message.
+  emailVerifiedAt: datetime('email_verified_at'),
+  // How remark notifications reach the account: one message each, a daily digest, or none.
+  remarkMail: mysqlEnum('remark_mail', REMARK_MAIL_PREFERENCES).notNull().default('immediate'),
+  // A random key for the unsubscribe link of digests (no sign-in needed to use it).
+  mailKey: varchar('mail_key', { length: 64 }).notNull().default(''),
   ...timestamps,
 }, t => [uniqueIndex('user_email_unique').on(t.email)])
 
@@ -38,6 +46,15 @@ export const companions = mysqlTable('companion', {
   abstract: text('abstract').notNull(),
   manuscriptRef: varchar('manuscript_ref', { length: 120 }).notNull().default(''),
   state: mysqlEnum('state', COMPANION_STATES).notNull().default('draft'),
+  // The page authors write (Markdown with math and figure directives); every save is also a revision.
+  pageText: mediumtext('page_text').notNull().default(''),
+  license: mysqlEnum('license', LICENSES).notNull().default('CC-BY-4.0'),
+  // Reviewers appear to authors as "Reviewer 1", "Reviewer 2" unless the editor opens identities.
+  identitiesOpen: boolean('identities_open').notNull().default(false),
+  // Remarks stay among members unless the editor publishes them with the companion.
+  remarksPublic: boolean('remarks_public').notNull().default(false),
+  publishedAt: datetime('published_at'),
+  publishedRevision: varchar('published_revision', { length: 40 }),
   createdBy: varchar('created_by', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,
 }, t => [uniqueIndex('companion_slug_unique').on(t.slug), index('companion_state_idx').on(t.state)])
@@ -47,6 +64,8 @@ export const memberships = mysqlTable('membership', {
   companionId: bigint('companion_id', { mode: 'number', unsigned: true }).notNull().references(() => companions.id, { onDelete: 'cascade' }),
   userId: varchar('user_id', { length: 40 }).notNull().references(() => users.id, { onDelete: 'cascade' }),
   role: mysqlEnum('role', COMPANION_ROLES).notNull(),
+  // Reviewers are numbered in the order they joined; authors see "Reviewer <n>".
+  reviewerNumber: int('reviewer_number'),
   ...timestamps,
 }, t => [uniqueIndex('membership_companion_user_unique').on(t.companionId, t.userId), index('membership_user_idx').on(t.userId)])
 
@@ -57,6 +76,93 @@ export const signInThrottle = mysqlTable('sign_in_throttle', {
   windowStart: datetime('window_start').notNull(),
   lockedUntil: datetime('locked_until'),
 })
+
+export const ACCOUNT_TOKEN_PURPOSES = ['password_reset', 'verify_email'] as const
+
+// One-use links sent by e-mail (password reset, address verification), stored as SHA-256 hashes.
+export const accountTokens = mysqlTable('account_token', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  userId: varchar('user_id', { length: 40 }).notNull().references(() => users.id, { onDelete: 'cascade' }),
+  purpose: mysqlEnum('purpose', ACCOUNT_TOKEN_PURPOSES).notNull(),
+  tokenHash: varchar('token_hash', { length: 64 }).notNull(),
+  expiresAt: datetime('expires_at').notNull(),
+  usedAt: datetime('used_at'),
+  createdAt: timestamp('created_at', { mode: 'date' }).notNull().default(sql`CURRENT_TIMESTAMP`),
+}, t => [uniqueIndex('account_token_hash_unique').on(t.tokenHash), index('account_token_user_idx').on(t.userId)])
+
+// Invitations by e-mail to a role in a companion: an expiring one-use link, stored as a hash.
+export const invitations = mysqlTable('invitation', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  companionId: bigint('companion_id', { mode: 'number', unsigned: true }).notNull().references(() => companions.id, { onDelete: 'cascade' }),
+  email: varchar('email', { length: 254 }).notNull(),
+  role: mysqlEnum('role', COMPANION_ROLES).notNull(),
+  message: text('message').notNull(),
+  tokenHash: varchar('token_hash', { length: 64 }).notNull(),
+  invitedBy: varchar('invited_by', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
+  expiresAt: datetime('expires_at').notNull(),
+  acceptedAt: datetime('accepted_at'),
+  acceptedBy: varchar('accepted_by', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
+  revokedAt: datetime('revoked_at'),
+  createdAt: timestamp('created_at', { mode: 'date' }).notNull().default(sql`CURRENT_TIMESTAMP`),
+}, t => [uniqueIndex('invitation_hash_unique').on(t.tokenHash), index('invitation_companion_idx').on(t.companionId)])
+
+// The audit trail of a companion: state changes with their reasons, invitations, role changes,
+// page edits, anonymity and remark settings. Append-only.
+export const companionEvents = mysqlTable('companion_event', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  companionId: bigint('companion_id', { mode: 'number', unsigned: true }).notNull().references(() => companions.id, { onDelete: 'cascade' }),
+  actorId: varchar('actor_id', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
+  kind: varchar('kind', { length: 40 }).notNull(),
+  fromState: mysqlEnum('from_state', COMPANION_STATES),
+  toState: mysqlEnum('to_state', COMPANION_STATES),
+  reason: text('reason').notNull(),
+  detail: json('detail').$type<Record<string, string | number | boolean | null>>().notNull(),
+  revision: varchar('revision', { length: 40 }),
+  createdAt: timestamp('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+}, t => [index('companion_event_companion_idx').on(t.companionId, t.createdAt)])
+
+export const REMARK_STATES = ['open', 'settled'] as const
+
+/** Where a remark points: the whole figure, one datum (a clicked point) or a rectangle in data coordinates. */
+export type RemarkAnchor =
+  | { kind: 'figure' }
+  | { kind: 'datum', x: number, y: number, series?: string, row?: number }
+  | { kind: 'region', x0: number, x1: number, y0: number, y1: number }
+
+// A remark: a thread on a figure of one revision of a companion.
+export const remarks = mysqlTable('remark', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  companionId: bigint('companion_id', { mode: 'number', unsigned: true }).notNull().references(() => companions.id, { onDelete: 'cascade' }),
+  figureNumber: int('figure_number').notNull(),
+  revision: varchar('revision', { length: 40 }).notNull(),
+  anchor: json('anchor').$type<RemarkAnchor>().notNull(),
+  state: mysqlEnum('state', REMARK_STATES).notNull().default('open'),
+  authorId: varchar('author_id', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
+  settledBy: varchar('settled_by', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
+  settledAt: datetime('settled_at'),
+  ...timestamps,
+}, t => [index('remark_companion_idx').on(t.companionId, t.figureNumber)])
+
+// The messages of a remark's thread; the first is the remark itself.
+export const remarkMessages = mysqlTable('remark_message', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  remarkId: bigint('remark_id', { mode: 'number', unsigned: true }).notNull().references(() => remarks.id, { onDelete: 'cascade' }),
+  authorId: varchar('author_id', { length: 40 }).references(() => users.id, { onDelete: 'set null' }),
+  body: text('body').notNull(),
+  createdAt: timestamp('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+}, t => [index('remark_message_remark_idx').on(t.remarkId)])
+
+// Notifications waiting for a daily digest (accounts that chose 'daily').
+export const pendingNotices = mysqlTable('pending_notice', {
+  id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+  userId: varchar('user_id', { length: 40 }).notNull().references(() => users.id, { onDelete: 'cascade' }),
+  companionId: bigint('companion_id', { mode: 'number', unsigned: true }).references(() => companions.id, { onDelete: 'cascade' }),
+  subject: varchar('subject', { length: 300 }).notNull(),
+  text: text('text').notNull(),
+  link: varchar('link', { length: 500 }).notNull(),
+  createdAt: timestamp('created_at', { mode: 'date' }).notNull().default(sql`CURRENT_TIMESTAMP`),
+  sentAt: datetime('sent_at'),
+}, t => [index('pending_notice_user_idx').on(t.userId, t.sentAt)])
 
 export const ENSEMBLE_FORMATS = ['text', 'json', 'npy', 'zip'] as const
 
