@@ -172,6 +172,13 @@ const rows: Row[] = [
   { route: 'GET /api/companions/[slug]/figures/[number]', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/figures/1`) },
   { route: 'GET /api/companions/[slug]/figures/[number]/overlay', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/figures/1/overlay?revision=${figureRevision}`) },
   { route: 'GET /files/[slug]/figures/[number]', expect: readers(200), call: as => status(as, 'GET', `/files/${slug}/figures/1?format=svg`) },
+  // rows: companion page (page text, preview)
+
+  // rows: remarks and notices
+
+  // rows: reader view, citations, license
+
+  // rows: review workflow, invitations, audit, accounts mail
   { route: 'GET /api/admin/users', expect: adminsOnly(200), call: as => status(as, 'GET', '/api/admin/users') },
   {
     route: 'PATCH /api/admin/users/[id]',
