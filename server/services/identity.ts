@@ -34,6 +34,10 @@ export function nameFor(access: Pick<CompanionAccess, 'role' | 'membershipRole' 
   const hidden = person.role === 'reviewer' && !self && !seesReviewerNames(access) && access.role !== 'reviewer'
   // Reviewers do not see each other's names either, unless identities are open.
   const hiddenFromReviewer = person.role === 'reviewer' && !self && access.role === 'reviewer' && !access.companion.identitiesOpen && access.user?.siteRole !== 'admin'
+  // Someone who left the companion: their role then is unknown (they may have reviewed).
+  if (person.role === null && !self && !seesReviewerNames(access)) {
+    return { userId: null, name: 'Former member', role: null, anonymous: true, self: false }
+  }
   if (hidden || hiddenFromReviewer) {
     return { userId: null, name: `Reviewer ${person.reviewerNumber ?? '?'}`, role: 'reviewer', anonymous: true, self: false }
   }
@@ -55,6 +59,5 @@ export async function personFor(people: Map<string, Person>, userId: string | nu
   const known = people.get(userId)
   if (known) return known
   const [account] = await useDB().select({ displayName: tables.users.displayName }).from(tables.users).where(eq(tables.users.id, userId)).limit(1)
-  // Someone who left: keep them anonymous, as their role is unknown now (they may have reviewed).
-  return { userId, displayName: account?.displayName ?? 'Former member', role: 'reviewer', reviewerNumber: null }
+  return { userId, displayName: account?.displayName ?? 'Former member', role: null, reviewerNumber: null }
 }
