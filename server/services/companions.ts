@@ -83,10 +83,23 @@ export async function addMember(companionId: number, email: string, role: Compan
   if (existing) {
     throw createError({ statusCode: 409, statusMessage: `That person is already a member (${existing.role}).`, data: { fields: { email: `Already a member as ${existing.role}; change the role in the list instead.` } } })
   }
-  await db.insert(tables.memberships).values({ companionId, userId: account.id, role })
+  await insertMembership(companionId, account.id, role)
   const member = (await listMembers(companionId)).find(x => x.userId === account.id)
   if (!member) throw createError({ statusCode: 500, statusMessage: 'The membership was not stored.' })
   return member
+}
+
+/** Reviewers get the next number in their companion ("Reviewer 3"), kept for good. */
+async function nextReviewerNumber(companionId: number): Promise<number> {
+  const [row] = await useDB().select({ n: sql<number | null>`MAX(${tables.memberships.reviewerNumber})` }).from(tables.memberships)
+    .where(eq(tables.memberships.companionId, companionId))
+  return Number(row?.n ?? 0) + 1
+}
+
+/** Adds a membership (reviewers numbered); used by the editor's list and by accepted invitations. */
+export async function insertMembership(companionId: number, userId: string, role: CompanionRole): Promise<void> {
+  const reviewerNumber = role === 'reviewer' ? await nextReviewerNumber(companionId) : null
+  await useDB().insert(tables.memberships).values({ companionId, userId, role, reviewerNumber })
 }
 
 async function editorCount(companionId: number): Promise<number> {
@@ -107,7 +120,10 @@ const lastEditor = () => createError({ statusCode: 409, statusMessage: 'A compan
 export async function changeMemberRole(companionId: number, userId: string, role: CompanionRole): Promise<void> {
   const before = await currentRole(companionId, userId)
   if (before === 'editor' && role !== 'editor' && await editorCount(companionId) <= 1) throw lastEditor()
-  await useDB().update(tables.memberships).set({ role })
+  const [row] = await useDB().select({ reviewerNumber: tables.memberships.reviewerNumber }).from(tables.memberships)
+    .where(and(eq(tables.memberships.companionId, companionId), eq(tables.memberships.userId, userId))).limit(1)
+  const reviewerNumber = role === 'reviewer' && !row?.reviewerNumber ? await nextReviewerNumber(companionId) : row?.reviewerNumber ?? null
+  await useDB().update(tables.memberships).set({ role, reviewerNumber })
     .where(and(eq(tables.memberships.companionId, companionId), eq(tables.memberships.userId, userId)))
 }
 
