@@ -22,7 +22,9 @@ let messages = []
 if (existsSync(store)) {
   for (const line of readFileSync(store, 'utf8').split('\n')) {
     if (!line.trim()) continue
-    try { messages.push(JSON.parse(line)) }
+    try {
+      messages.push(JSON.parse(line))
+    }
     catch { /* a torn last line after a crash */ }
   }
   messages = messages.slice(-LIMIT)

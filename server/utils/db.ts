@@ -4,7 +4,7 @@ import type { MySql2Database } from 'drizzle-orm/mysql2'
 import mysql from 'mysql2/promise'
 import * as schema from '../db/schema'
 
-export { and, asc, count, desc, eq, inArray, like, ne, or, sql } from 'drizzle-orm'
+export { and, asc, count, desc, eq, gt, inArray, isNull, like, lt, ne, or, sql } from 'drizzle-orm'
 export const tables = schema
 
 export type AppDatabase = MySql2Database<typeof schema>

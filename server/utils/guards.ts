@@ -3,6 +3,12 @@ import type { H3Event } from 'h3'
 import type { User } from 'lucia'
 import type { CompanionRole } from '#shared/types/roles'
 import type { CompanionRow } from '#shared/types/db'
+import { SETTLED_STATES } from '#shared/review/course'
+
+/** Refuses API tokens on routes meant for people in a browser. */
+export function refuseApiToken(event: H3Event): void {
+  refuseToken(event)
+}
 
 function refuseToken(event: H3Event): void {
   if (event.context.token) throw createError({ statusCode: 403, statusMessage: 'API tokens are accepted only by the ensemble routes of their companion.' })
@@ -78,13 +84,24 @@ async function tokenAccess(event: H3Event, slug: string, minimum: CompanionRole,
  * A companion the caller may not see answers 404, so that its existence does not leak.
  * Routes that accept API tokens name the scope a token needs.
  */
-export async function requireCompanionRole(event: H3Event, slug: string, minimum: CompanionRole, options: { tokenScope?: TokenScope } = {}): Promise<CompanionAccess> {
-  if (event.context.token) return tokenAccess(event, slug, minimum, options.tokenScope)
-  const access = await findCompanionAccess(event, slug)
+export async function requireCompanionRole(event: H3Event, slug: string, minimum: CompanionRole, options: { tokenScope?: TokenScope, whileSettled?: boolean } = {}): Promise<CompanionAccess> {
+  const access = event.context.token ? await tokenAccess(event, slug, minimum, options.tokenScope) : await findCompanionAccess(event, slug)
   if (!access) throw createError({ statusCode: 404, statusMessage: 'No companion by that name.' })
   if (!roleAtLeast(access.role, minimum)) {
     if (!access.user) throw createError({ statusCode: 401, statusMessage: 'Sign in to continue.' })
     throw createError({ statusCode: 403, statusMessage: `This needs the ${minimum} role in this companion.` })
   }
+  refuseChangeWhenSettled(event, access, minimum, options.whileSettled)
   return access
+}
+
+/**
+ * Once a companion is accepted, published or withdrawn, authors no longer change it (the editor
+ * still may, e.g. to correct a published companion, or reopen it for revision).
+ */
+function refuseChangeWhenSettled(event: H3Event, access: CompanionAccess, minimum: CompanionRole, whileSettled = false): void {
+  if (whileSettled || minimum !== 'author' || access.role === 'editor') return
+  if (['GET', 'HEAD'].includes(event.method)) return
+  if (!SETTLED_STATES.includes(access.companion.state)) return
+  throw createError({ statusCode: 409, statusMessage: `The companion is ${companionStateLabel[access.companion.state]}: authors no longer change it. Ask the editor to reopen it for revision.` })
 }

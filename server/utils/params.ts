@@ -9,3 +9,4 @@ export const revisionParams = z.object({ slug: slugSchema, oid: z.string().regex
 export const tokenParams = z.object({ slug: slugSchema, id: z.coerce.number().int().positive() })
 export const computationParams = z.object({ slug: slugSchema, id: z.coerce.number().int().positive() })
 export const figureParams = z.object({ slug: slugSchema, number: z.coerce.number().int().positive() })
+export const invitationParams = z.object({ slug: slugSchema, id: z.coerce.number().int().positive() })
