@@ -5,6 +5,7 @@ import { join, relative } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiClient, makeAdmin, planeSetting, signUp, uniqueCsv, uniqueName } from '../support/http'
 import type { TestAccount } from '../support/http'
+import { invitationToken, waitForMail } from '../support/mail'
 import { startRunner } from '../support/runner'
 import type { Runner } from '../support/runner'
 
@@ -179,6 +180,51 @@ const rows: Row[] = [
   // rows: reader view, citations, license
 
   // rows: review workflow, invitations, audit, accounts mail
+  // From draft the course has no move to 'published': those who may move get 409, the rest are refused first.
+  { route: 'POST /api/companions/[slug]/state', expect: authors(409), call: as => status(as, 'POST', `/api/companions/${slug}/state`, { to: 'published', reason: 'role matrix probe' }) },
+  { route: 'PATCH /api/companions/[slug]/review-settings', expect: editorsOnly(200), call: as => status(as, 'PATCH', `/api/companions/${slug}/review-settings`, { identitiesOpen: false, reason: 'role matrix probe' }) },
+  { route: 'GET /api/companions/[slug]/events', expect: authors(200), call: as => status(as, 'GET', `/api/companions/${slug}/events`) },
+  { route: 'GET /api/companions/[slug]/invitations', expect: editorsOnly(200), call: as => status(as, 'GET', `/api/companions/${slug}/invitations`) },
+  { route: 'POST /api/companions/[slug]/invitations', expect: editorsOnly(201), call: as => status(as, 'POST', `/api/companions/${slug}/invitations`, { email: `${uniqueName('invited')}@tests.example`, role: 'reviewer' }) },
+  {
+    route: 'DELETE /api/companions/[slug]/invitations/[id]',
+    expect: editorsOnly(204),
+    call: async (as) => {
+      const made = await accounts.editor.client.post<{ invitation: { id: number } }>(`/api/companions/${slug}/invitations`, { email: `${uniqueName('withdrawn')}@tests.example`, role: 'reader' })
+      return status(as, 'DELETE', `/api/companions/${slug}/invitations/${made.body.invitation.id}`)
+    },
+  },
+  {
+    route: 'GET /api/invitations/[token]',
+    expect: all(200),
+    call: async (as) => {
+      const address = `${uniqueName('link')}@tests.example`
+      await accounts.editor.client.post(`/api/companions/${slug}/invitations`, { email: address, role: 'reader' })
+      return status(as, 'GET', `/api/invitations/${invitationToken(await waitForMail(address, /Invitation/))}`)
+    },
+  },
+  {
+    route: 'POST /api/invitations/[token]/accept',
+    expect: { ...all(200), anonymous: 401 },
+    call: async (as) => {
+      // A companion of a stranger's, inviting the account under test (anonymous: a fresh address).
+      const owner = await signUp('inviter')
+      const other = uniqueName('matrix-invite-')
+      await owner.client.post('/api/companions', { title: 'Invitation probe', slug: other })
+      const address = as === 'anonymous' ? `${uniqueName('nobody')}@tests.example` : accounts[as].email
+      await owner.client.post(`/api/companions/${other}/invitations`, { email: address, role: 'reader' })
+      const mail = await waitForMail(address, new RegExp(`Invitation.*Invitation probe`))
+      return status(as, 'POST', `/api/invitations/${invitationToken(mail)}/accept`, {})
+    },
+  },
+  { route: 'GET /api/account/invitations', expect: signedIn(200), call: as => status(as, 'GET', '/api/account/invitations') },
+  { route: 'POST /api/account/invitations/[id]/accept', expect: signedIn(404), call: as => status(as, 'POST', '/api/account/invitations/999999999/accept', {}) },
+  { route: 'POST /api/auth/password-reset', expect: all(202), call: as => status(as, 'POST', '/api/auth/password-reset', { email: `${uniqueName('nobody')}@tests.example` }) },
+  { route: 'POST /api/auth/password-reset/confirm', expect: all(404), call: as => status(as, 'POST', '/api/auth/password-reset/confirm', { token: 'x'.repeat(43), password: 'a long enough password' }) },
+  { route: 'POST /api/auth/verify-email', expect: all(404), call: as => status(as, 'POST', '/api/auth/verify-email', { token: 'y'.repeat(43) }) },
+  { route: 'GET /api/account/address', expect: signedIn(200), call: as => status(as, 'GET', '/api/account/address') },
+  { route: 'POST /api/account/verification', expect: signedIn(202), call: as => status(as, 'POST', '/api/account/verification', {}) },
+  { route: 'GET /api/dev/inbox', expect: all(200), call: as => status(as, 'GET', '/api/dev/inbox?to=nobody%40tests.example') },
   { route: 'GET /api/admin/users', expect: adminsOnly(200), call: as => status(as, 'GET', '/api/admin/users') },
   {
     route: 'PATCH /api/admin/users/[id]',

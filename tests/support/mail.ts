@@ -35,3 +35,10 @@ export function linkIn(mail: SentMail, part: string): string {
   if (!link) throw new Error(`the message "${mail.subject}" has no link containing ${part}:\n${mail.text}`)
   return link
 }
+
+/** The token of the invitation link in a message. */
+export function invitationToken(mail: SentMail): string {
+  const token = /\/invitations\/([\w-]{43})/.exec(mail.text)?.[1]
+  if (!token) throw new Error(`the message "${mail.subject}" has no invitation link:\n${mail.text}`)
+  return token
+}
