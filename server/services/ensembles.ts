@@ -49,15 +49,55 @@ interface RejectedUpload {
   error: { message: string, where: Record<string, unknown> }
 }
 
-export async function createEnsemble(companion: CompanionRow, user: Pick<User, 'id' | 'displayName' | 'email'>, upload: ReceivedUpload, setting: EnsembleSettingInput) {
-  checkPotential(setting)
-  const parsed = await useWorkerPool('parse-ensemble').run({ path: upload.path, fileName: upload.fileName, geometry: setting.geometry }) as ParsedUpload | RejectedUpload
+/** Reads and checks an upload in a worker thread; a bad file is a 422 saying where it goes wrong. */
+async function parseUpload(upload: ReceivedUpload, geometry: EnsembleSettingRecord['geometry']): Promise<ParsedUpload> {
+  const parsed = await useWorkerPool('parse-ensemble').run({ path: upload.path, fileName: upload.fileName, geometry }) as ParsedUpload | RejectedUpload
   if (!parsed.ok) {
     throw createError({ statusCode: 422, statusMessage: parsed.error.message, data: { where: parsed.error.where, fields: { file: parsed.error.message } } })
   }
-  const db = useDB()
-  const [duplicate] = await db.select({ id: tables.ensembles.id, name: tables.ensembles.name }).from(tables.ensembles)
-    .where(and(eq(tables.ensembles.companionId, companion.id), eq(tables.ensembles.sha256, upload.sha256))).limit(1)
+  return parsed
+}
+
+/** Puts the upload's bytes in object storage under their SHA-256; true when this call created the object. */
+async function storeObject(upload: ReceivedUpload): Promise<{ objectKey: string, createdObject: boolean }> {
+  const objectKey = objectKeyFor(upload.sha256)
+  try {
+    if (await objectExists(objectKey)) return { objectKey, createdObject: false }
+    await putObject(objectKey, createReadStream(upload.path))
+    return { objectKey, createdObject: true }
+  }
+  catch (error) {
+    storageUnavailable(error)
+  }
+}
+
+/** After a failed commit: deletes an object this change created, unless a row names it. */
+async function dropUnusedObject(objectKey: string, createdObject: boolean): Promise<void> {
+  if (!createdObject) return
+  const [stillUsed] = await useDB().select({ id: tables.ensembles.id }).from(tables.ensembles).where(eq(tables.ensembles.objectKey, objectKey)).limit(1).catch(() => [{ id: 0 }])
+  if (!stillUsed) await deleteObject(objectKey).catch(() => undefined)
+}
+
+type ConfigurationWriter = Pick<ReturnType<typeof useDB>, 'insert'>
+
+async function insertConfigurations(tx: ConfigurationWriter, ensembleId: number, parsed: ParsedUpload): Promise<void> {
+  for (let start = 0; start < parsed.configurations.length; start += 500) {
+    await tx.insert(tables.ensembleConfigurations).values(parsed.configurations.slice(start, start + 500).map((c, k) => ({
+      ensembleId,
+      position: start + k,
+      n: c.N,
+      d: c.d,
+      checksum: c.checksum,
+      bbox: c.bbox,
+      minDistance: c.minDistance,
+      labels: parsed.labels[start + k] ?? {},
+    })))
+  }
+}
+
+async function refuseDuplicate(companionId: number, sha256: string): Promise<void> {
+  const [duplicate] = await useDB().select({ id: tables.ensembles.id, name: tables.ensembles.name }).from(tables.ensembles)
+    .where(and(eq(tables.ensembles.companionId, companionId), eq(tables.ensembles.sha256, sha256))).limit(1)
     .catch(error => rethrowUnavailable(error, 'The database'))
   if (duplicate) {
     throw createError({
@@ -66,17 +106,53 @@ export async function createEnsemble(companion: CompanionRow, user: Pick<User, '
       data: { existing: duplicate, fields: { file: `Already stored as «${duplicate.name}».` } },
     })
   }
-  const objectKey = objectKeyFor(upload.sha256)
-  let createdObject = false
+}
+
+/**
+ * Replaces the data of an ensemble with a corrected file (same name, setting and number), as one
+ * revision; the computations over it are queued again, and their figures follow.
+ */
+export async function replaceEnsembleFile(companion: CompanionRow, user: Pick<User, 'id' | 'displayName' | 'email'>, id: number, upload: ReceivedUpload, note: string) {
+  const before = await findEnsemble(companion.id, id)
+  const parsed = await parseUpload(upload, before.setting.geometry)
+  await refuseDuplicate(companion.id, upload.sha256)
+  const { objectKey, createdObject } = await storeObject(upload)
+  const db = useDB()
   try {
-    if (!(await objectExists(objectKey))) {
-      await putObject(objectKey, createReadStream(upload.path))
-      createdObject = true
-    }
+    const { revision } = await commitChange(companion, user, async (tx) => {
+      await tx.update(tables.ensembles).set({
+        fileName: upload.fileName,
+        format: parsed.format,
+        sha256: upload.sha256,
+        sizeBytes: upload.sizeBytes,
+        objectKey,
+        d: parsed.d,
+        configurationCount: parsed.configurations.length,
+        pointCount: parsed.configurations.reduce((n, c) => n + c.N, 0),
+        uploadedBy: user.id,
+        preview: parsed.preview,
+      }).where(eq(tables.ensembles.id, id))
+      await tx.delete(tables.ensembleConfigurations).where(eq(tables.ensembleConfigurations.ensembleId, id))
+      await insertConfigurations(tx, id, parsed)
+      const why = note ? `: ${note}` : ''
+      return { result: id, message: `Replace the data of ensemble «${before.name}» with ${upload.fileName} (${parsed.configurations.length} configuration${parsed.configurations.length === 1 ? '' : 's'})${why}` }
+    })
+    await db.update(tables.ensembles).set({ revision }).where(eq(tables.ensembles.id, id))
+    const requeued = await requeueAffected(companion.id)
+    return { id, revision, warnings: parsed.warnings, preview: parsed.preview, requeued }
   }
   catch (error) {
-    storageUnavailable(error)
+    await dropUnusedObject(objectKey, createdObject)
+    throw error
   }
+}
+
+export async function createEnsemble(companion: CompanionRow, user: Pick<User, 'id' | 'displayName' | 'email'>, upload: ReceivedUpload, setting: EnsembleSettingInput) {
+  checkPotential(setting)
+  const parsed = await parseUpload(upload, setting.geometry)
+  const db = useDB()
+  await refuseDuplicate(companion.id, upload.sha256)
+  const { objectKey, createdObject } = await storeObject(upload)
   const pointCount = parsed.configurations.reduce((n, c) => n + c.N, 0)
   try {
     const { result: id, revision } = await commitChange(companion, user, async (tx) => {
@@ -98,28 +174,14 @@ export async function createEnsemble(companion: CompanionRow, user: Pick<User, '
         preview: parsed.preview,
       }).$returningId()
       if (!row) throw new Error('the ensemble row was not stored')
-      for (let start = 0; start < parsed.configurations.length; start += 500) {
-        await tx.insert(tables.ensembleConfigurations).values(parsed.configurations.slice(start, start + 500).map((c, k) => ({
-          ensembleId: row.id,
-          position: start + k,
-          n: c.N,
-          d: c.d,
-          checksum: c.checksum,
-          bbox: c.bbox,
-          minDistance: c.minDistance,
-          labels: parsed.labels[start + k] ?? {},
-        })))
-      }
+      await insertConfigurations(tx, row.id, parsed)
       return { result: row.id, message: `Add ensemble «${setting.name}»: ${parsed.configurations.length} configuration${parsed.configurations.length === 1 ? '' : 's'} from ${upload.fileName}` }
     })
     await db.update(tables.ensembles).set({ revision }).where(eq(tables.ensembles.id, id))
     return { id, revision, warnings: parsed.warnings, preview: parsed.preview }
   }
   catch (error) {
-    if (createdObject) {
-      const [stillUsed] = await db.select({ id: tables.ensembles.id }).from(tables.ensembles).where(eq(tables.ensembles.objectKey, objectKey)).limit(1).catch(() => [{ id: 0 }])
-      if (!stillUsed) await deleteObject(objectKey).catch(() => undefined)
-    }
+    await dropUnusedObject(objectKey, createdObject)
     throw error
   }
 }

@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest'
 import { ApiClient, planeSetting, signUp, uniqueCsv, uniqueName, withDatabase } from '../support/http'
 import type { TestAccount } from '../support/http'
 import { invitationToken, linkIn, mailTo, waitForMail } from '../support/mail'
+import { startRunner } from '../support/runner'
 
 async function companionWith(roles: Array<'author' | 'reviewer' | 'reader'>) {
   const editor = await signUp('course-editor')
@@ -193,5 +194,42 @@ describe('account e-mail links', () => {
     const link = linkIn(await waitForMail(person.email, /Confirm your address/), '/verify-email?token=')
     await new ApiClient().post('/api/auth/verify-email', { token: new URL(link).searchParams.get('token') })
     expect((await person.client.post(`/api/account/invitations/${invitation.id}/accept`, {})).body).toEqual({ slug, role: 'reader' })
+  })
+})
+
+describe('a corrected ensemble', () => {
+  it('replaces the data as one revision and the computations over it run again', async () => {
+    const runner = await startRunner()
+    try {
+      const { slug, members } = await companionWith(['author'])
+      const author = members.author!
+      // Two points at distance 1, then at distance 2: the pair sum Σ_{i<j} −log|x_i − x_j| goes from
+      // 0 to −log 2 (the log kernel g(x) = −log|x|; common practice for the two-dimensional log-gas).
+      const first = await author.client.upload<{ id: number, revision: string }>(`/api/companions/${slug}/ensembles`, planeSetting('pair'), 'pair.csv', 'x,y\n0,0\n1,0\n')
+      expect(first.status).toBe(201)
+      const made = await author.client.post<{ id: number }>(`/api/companions/${slug}/computations`, { name: 'energy', quantity: 'energy', ensembleIds: [first.body.id], parameters: {} })
+      const pairSum = async () => {
+        for (let i = 0; i < 300; i++) {
+          const c = await author.client.get<{ computation: { status: string }, result: { table: { rows: Array<Record<string, number>> } } | null }>(`/api/companions/${slug}/computations/${made.body.id}`)
+          if (c.body.computation.status === 'current' && c.body.result) return c.body.result.table.rows[0]!.pairSum
+          await new Promise(resolve => setTimeout(resolve, 200))
+        }
+        throw new Error('the computation did not finish')
+      }
+      expect(await pairSum()).toBeCloseTo(0, 12)
+      const bad = await author.client.upload<{ message: string, data: { where: Record<string, unknown> } }>(`/api/companions/${slug}/ensembles/${first.body.id}/file`, {}, 'broken.csv', 'x,y\n0,0\n2\n')
+      expect(bad.status).toBe(422)
+      expect(bad.body.data.where).toMatchObject({ line: 3 })
+      const replaced = await author.client.upload<{ revision: string, requeued: number }>(`/api/companions/${slug}/ensembles/${first.body.id}/file`, {}, 'pair-corrected.csv', 'x,y\n0,0\n2,0\n')
+      expect(replaced.status).toBe(200)
+      expect(replaced.body.revision).not.toBe(first.body.revision)
+      expect(replaced.body.requeued).toBe(1)
+      expect(await pairSum()).toBeCloseTo(-Math.log(2), 12)
+      const revisions = await author.client.get<{ revisions: Array<{ message: string }> }>(`/api/companions/${slug}/revisions`)
+      expect(revisions.body.revisions[0]!.message).toMatch(/Replace the data of ensemble «pair» with pair-corrected\.csv/)
+    }
+    finally {
+      await runner.stop()
+    }
   })
 })

@@ -224,6 +224,11 @@ const rows: Row[] = [
   { route: 'POST /api/auth/verify-email', expect: all(404), call: as => status(as, 'POST', '/api/auth/verify-email', { token: 'y'.repeat(43) }) },
   { route: 'GET /api/account/address', expect: signedIn(200), call: as => status(as, 'GET', '/api/account/address') },
   { route: 'POST /api/account/verification', expect: signedIn(202), call: as => status(as, 'POST', '/api/account/verification', {}) },
+  {
+    route: 'POST /api/companions/[slug]/ensembles/[id]/file',
+    expect: authors(200),
+    call: async as => (await clientFor(as).upload(`/api/companions/${slug}/ensembles/${await throwawayEnsemble()}/file`, {}, 'corrected.csv', uniqueCsv())).status,
+  },
   { route: 'GET /api/dev/inbox', expect: all(200), call: as => status(as, 'GET', '/api/dev/inbox?to=nobody%40tests.example') },
   { route: 'GET /api/admin/users', expect: adminsOnly(200), call: as => status(as, 'GET', '/api/admin/users') },
   {
