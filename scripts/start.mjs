@@ -44,8 +44,9 @@ async function main() {
     ...(demo
       ? ['', 'Demo accounts (demo seed only; never in production):', ...demoAccounts.map(a => `  ${a.email.padEnd(32)} ${a.password.padEnd(22)} ${a.part}`)]
       : []),
+    ...(demo && env.NUXT_MAIL_INBOX_URL ? ['', `Mail the application sends (invitations, notices, password links) is at ${address}/dev/inbox`] : []),
     '',
-    'Ctrl-C stops the application; `npm run services:stop` stops MariaDB and the object store.',
+    'Ctrl-C stops the application; `npm run services:stop` stops MariaDB, the object store and the SMTP fake.',
     '',
   ]
   process.stdout.write(lines.join('\n'))
