@@ -44,11 +44,14 @@ export async function seedDemo(url: string): Promise<void> {
       companion = created
     }
     if (!companion) throw new Error('the demo companion was not stored')
+    let reviewers = 0
     for (const member of demoCompanion.members) {
       const userId = ids.get(member.email)!
+      // Reviewers are numbered in the order they joined, as the application does.
+      const reviewerNumber = member.role === 'reviewer' ? ++reviewers : null
       const [row] = await db.select({ id: schema.memberships.id }).from(schema.memberships)
         .where(and(eq(schema.memberships.companionId, companion.id), eq(schema.memberships.userId, userId))).limit(1)
-      if (!row) await db.insert(schema.memberships).values({ companionId: companion.id, userId, role: member.role })
+      if (!row) await db.insert(schema.memberships).values({ companionId: companion.id, userId, role: member.role, reviewerNumber })
     }
   }
   finally {
