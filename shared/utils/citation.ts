@@ -142,14 +142,14 @@ export interface CslItem {
 export function cslJsonItem(input: CitationInput): CslItem {
   const published = dateOf(input.publishedAt)
   const item: CslItem = {
-    'id': citationKey(input),
-    'type': 'dataset',
-    'title': titleOf(input),
-    'author': input.authors.map(splitPersonName),
-    'URL': citationUrl(input),
-    'publisher': 'Quillfield',
-    'note': citationNote(input),
-    'license': input.license,
+    id: citationKey(input),
+    type: 'dataset',
+    title: titleOf(input),
+    author: input.authors.map(splitPersonName),
+    URL: citationUrl(input),
+    publisher: 'Quillfield',
+    note: citationNote(input),
+    license: input.license,
   }
   if (published) item.issued = { 'date-parts': [[published.getUTCFullYear(), published.getUTCMonth() + 1, published.getUTCDate()]] }
   const version = shortVersion(input.version)
