@@ -44,7 +44,7 @@ async function baseInput(event: H3Event, companion: Companion): Promise<Citation
     abstract: companion.abstract,
     manuscriptRef: companion.manuscriptRef,
     authors: await authorNames(companion),
-    publishedAt: companion.state === 'published' ? companion.publishedAt : null,
+    publishedAt: companion.state === 'published' ? companion.publishedAt ?? companion.updatedAt : null,
     version: await citedVersion(companion),
     license: companion.license,
     siteUrl: siteUrl(event),
