@@ -20,9 +20,17 @@ export default defineNuxtConfig({
     '@fontsource/source-sans-3/400.css',
     '@fontsource/source-sans-3/600.css',
     '~/assets/css/main.css',
+    'katex/dist/katex.min.css',
   ],
   content: {
     experimental: { sqliteConnector: 'better-sqlite3' },
+    // Math in the documentation: $…$ and $$…$$ in Markdown, set by KaTeX when the pages are built.
+    build: {
+      markdown: {
+        remarkPlugins: { 'remark-math': {} },
+        rehypePlugins: { 'rehype-katex': { output: 'html', strict: false } },
+      },
+    },
   },
   runtimeConfig: {
     // Every key is overridable at run time by NUXT_<KEY> (e.g. NUXT_DATABASE_URL).

@@ -178,6 +178,11 @@ const rows: Row[] = [
   // rows: remarks and notices
 
   // rows: reader view, citations, license
+  { route: 'GET /api/published', expect: all(200), call: as => status(as, 'GET', '/api/published?q=plasma&page=1') },
+  { route: 'GET /api/companions/[slug]/citation', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/citation`) },
+  { route: 'GET /files/[slug]/cite', expect: readers(200), call: as => status(as, 'GET', `/files/${slug}/cite?format=bibtex`) },
+  // The fixture keeps its licence: every call sets the one it already has.
+  { route: 'PUT /api/companions/[slug]/license', expect: authors(200), call: as => status(as, 'PUT', `/api/companions/${slug}/license`, { license: 'CC-BY-4.0' }) },
 
   // rows: review workflow, invitations, audit, accounts mail
   // From draft the course has no move to 'published': those who may move get 409, the rest are refused first.
