@@ -16,6 +16,7 @@ import remarkGfm from 'remark-gfm'
 import remarkMath from 'remark-math'
 import remarkRehype from 'remark-rehype'
 import rehypeSanitize, { defaultSchema } from 'rehype-sanitize'
+import type { Options as SanitizeSchema } from 'rehype-sanitize'
 import rehypeKatex from 'rehype-katex'
 import rehypeStringify from 'rehype-stringify'
 
@@ -59,16 +60,16 @@ const BLOCK_TAG = 'qf-page-block'
 // A strict schema derived from the sanitiser's default: no script, style, iframe, object, embed,
 // form or event-handler attributes (none of them is in the default list), no style attributes,
 // links only over http, https or mailto (relative links and #fragments stay), images over http(s).
-const schema = {
+const schema: SanitizeSchema = {
   ...defaultSchema,
   clobberPrefix: PAGE_ID_PREFIX,
   tagNames: [...(defaultSchema.tagNames ?? []).filter(t => !['input'].includes(t)), BLOCK_TAG],
   attributes: {
     ...defaultSchema.attributes,
-    'code': [['className', /^language-./, 'math-inline', 'math-display']],
-    'li': [],
-    'ul': [],
-    'ol': [['start']],
+    code: [['className', /^language-./, 'math-inline', 'math-display']],
+    li: [],
+    ul: [],
+    ol: [['start']],
     [BLOCK_TAG]: ['dataIndex'],
   },
   protocols: {
