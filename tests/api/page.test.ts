@@ -2,7 +2,7 @@
 // blocks, bad text is refused field by field and stores nothing, and only authors and editors write.
 import { beforeAll, describe, expect, it } from 'vitest'
 import { unzipSync, strFromU8 } from 'fflate'
-import { baseUrl, planeSetting, signUp, uniqueCsv, uniqueName } from '../support/http'
+import { baseUrl, planeSetting, signUp, uniqueCsv, uniqueName, withDatabase } from '../support/http'
 import type { TestAccount } from '../support/http'
 
 let author: TestAccount
@@ -53,6 +53,11 @@ describe('the companion page', () => {
     const after = await author.client.get<RevisionsReply>(`/api/companions/${slug}/revisions`)
     expect(after.body.revisions).toHaveLength(before.body.revisions.length + 1)
     expect(after.body.revisions[0]).toMatchObject({ oid: saved.body.revision, message: 'Describe the energies' })
+    const events = await withDatabase(async (c) => {
+      const [rows] = await c.query('SELECT e.kind, e.actor_id AS actor FROM companion_event e JOIN companion k ON k.id = e.companion_id WHERE k.slug = ? AND e.revision = ?', [slug, saved.body.revision])
+      return rows as Array<{ kind: string, actor: string }>
+    })
+    expect(events).toEqual([{ kind: 'page', actor: author.id }])
 
     const page = await reader.client.get<PageReply>(`/api/companions/${slug}/page`)
     expect(page.body.text).toBe(text)
@@ -79,6 +84,11 @@ describe('the companion page', () => {
     const again = await author.client.request<{ revision: string, changed: boolean }>('PUT', `/api/companions/${slug}/page`, { text: page.body.text })
     expect(again.status).toBe(200)
     expect(again.body).toMatchObject({ revision: page.body.revision, changed: false })
+    const events = await withDatabase(async (c) => {
+      const [rows] = await c.query('SELECT COUNT(*) AS n FROM companion_event e JOIN companion k ON k.id = e.companion_id WHERE k.slug = ? AND e.kind = ?', [slug, 'page'])
+      return Number((rows as Array<{ n: number }>)[0]!.n)
+    })
+    expect(events).toBe(1)
   })
 
   it('refuses text over 200 000 characters with a message on the text field, storing nothing', async () => {
