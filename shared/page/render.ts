@@ -162,10 +162,11 @@ function directivePass(source: string, state: RenderState) {
 // Math that KaTeX cannot read is shown in place (an error span); here it is also reported by line.
 function mathCheckPass(state: RenderState) {
   return (tree: MdastRoot) => {
-    const visit = (node: { type: string, value?: string, children?: unknown[], position?: { start: { line: number } } }) => {
-      if ((node.type === 'math' || node.type === 'inlineMath') && typeof node.value === 'string') {
+    const visit = (node: { type: string, value?: string, lang?: string | null, children?: unknown[], position?: { start: { line: number } } }) => {
+      const fenced = node.type === 'code' && node.lang === 'math'
+      if ((node.type === 'math' || node.type === 'inlineMath' || fenced) && typeof node.value === 'string') {
         try {
-          katex.renderToString(node.value, { ...PAGE_KATEX_OPTIONS, displayMode: node.type === 'math', throwOnError: true })
+          katex.renderToString(node.value, { ...PAGE_KATEX_OPTIONS, displayMode: node.type !== 'inlineMath', throwOnError: true })
         }
         catch (error) {
           const message = error instanceof Error ? error.message.replace(/^KaTeX parse error: /, '') : String(error)

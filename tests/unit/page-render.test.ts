@@ -48,6 +48,12 @@ describe('math (reference library: katex.renderToString)', () => {
     expect(problems[0]!.line).toBe(3)
   })
 
+  it('sets a ```math fence in display mode and reports its errors too', () => {
+    const { blocks } = renderPage('```math\n\\sum_{i=1}^N x_i\n```')
+    expect(normal((blocks[0] as { html: string }).html)).toBe(normal(katex.renderToString('\\sum_{i=1}^N x_i\n', { ...PAGE_KATEX_OPTIONS, displayMode: true })))
+    expect(renderPage('Text.\n\n```math\n\\frac{1}{\n```').problems.map(p => p.line)).toEqual([3])
+  })
+
   it('refuses \\href and \\url inside math (trust: false)', () => {
     const html = htmlOf('$\\href{javascript:alert(1)}{x}$ and $\\url{http://example.com}$')
     expect(elementsOf(html).filter(e => e.tag === 'a')).toEqual([])
