@@ -19,6 +19,8 @@ export default defineNuxtConfig({
     '@fontsource/literata/600.css',
     '@fontsource/source-sans-3/400.css',
     '@fontsource/source-sans-3/600.css',
+    // KaTeX's styles; Vite bundles its fonts with the app (no CDN).
+    'katex/dist/katex.min.css',
     '~/assets/css/main.css',
     'katex/dist/katex.min.css',
   ],

@@ -20,6 +20,7 @@ Companion \`${companion.slug}\` at revision ${revision}, exported by Quillfield 
 - \`manifest.json\` lists every ensemble: its file, SHA-256, geometry, kernel, potential, β, the
   convention record its energies use, and one checksum per configuration.
 - \`data/\` holds the files exactly as they were uploaded.
+- \`page.md\`, when the companion has a page, holds its text (Markdown with math and figure directives).
 - \`SHA256SUMS\` holds the SHA-256 of every file in this archive except itself.
 
 ## Re-verify
@@ -44,7 +45,7 @@ function sha256Of(bytes: Uint8Array): string {
   return createHash('sha256').update(bytes).digest('hex')
 }
 
-export async function streamArchive(companion: CompanionRow, manifest: Manifest, revision: string): Promise<PassThrough> {
+export async function streamArchive(companion: CompanionRow, manifest: Manifest, revision: string, pageText: string | null = null): Promise<PassThrough> {
   const out = new PassThrough()
   const zip = new Zip((error, chunk, final) => {
     if (error) {
@@ -69,6 +70,7 @@ export async function streamArchive(companion: CompanionRow, manifest: Manifest,
   ;(async () => {
     addText('manifest.json', `${JSON.stringify(manifest, null, 2)}\n`)
     addText('README.md', readme(companion, manifest, revision))
+    if (pageText) addText('page.md', pageText)
     for (const e of manifest.ensembles) {
       const name = dataPathInArchive(e)
       const entry = new ZipPassThrough(name)

@@ -70,7 +70,14 @@ export async function buildManifest(db: Reader, companion: Pick<CompanionRow, 'i
 export async function commitChange<T>(
   companion: CompanionRow,
   user: Pick<User, 'displayName' | 'email'>,
-  change: (tx: Transaction) => Promise<{ result: T, message: string }>,
+  change: (tx: Transaction) => Promise<{
+    result: T
+    message: string
+    /** Text files committed beside the manifest (e.g. page.md). */
+    files?: Record<string, string>
+    /** Runs in the same transaction once the revision is known (e.g. its audit entry). */
+    afterCommit?: (tx: Transaction, revision: string, changed: boolean) => Promise<void>
+  }>,
 ): Promise<{ result: T, revision: string }> {
   const dir = repositoryDirectory(companion.id)
   const author = authorOf(user)
@@ -80,10 +87,11 @@ export async function commitChange<T>(
     let committed = false
     try {
       return await useDB().transaction(async (tx) => {
-        const { result, message } = await change(tx)
+        const { result, message, files, afterCommit } = await change(tx)
         const manifest = await buildManifest(tx, companion)
-        const commit = await commitManifest(dir, manifest, { author, message })
+        const commit = await commitManifest(dir, manifest, { author, message, files })
         committed = commit.changed
+        await afterCommit?.(tx, commit.oid, commit.changed)
         return { result, revision: commit.oid }
       })
     }

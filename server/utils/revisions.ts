@@ -434,11 +434,6 @@ async function manifestOfCommit(dir: string, oid: string): Promise<Manifest> {
   }
 }
 
-async function manifestBlobOid(dir: string, commitOid: string): Promise<string | null> {
-  const { tree } = await git.readTree({ fs, dir, oid: commitOid })
-  return tree.find(entry => entry.path === MANIFEST_FILE)?.oid ?? null
-}
-
 // Brings the work tree and index in line with main (files of humans looking at the repository;
 // nothing here reads the work tree).
 async function syncWorkTree(dir: string): Promise<void> {
@@ -452,17 +447,26 @@ async function writeManifestCommit(
   author: RevisionAuthor,
   message: string,
   date: Date | undefined,
+  files: Record<string, string> = {},
 ): Promise<{ oid: string, changed: boolean }> {
   const text = canonicalManifestJson(manifest)
   const blob = await git.writeBlob({ fs, dir, blob: new TextEncoder().encode(text) })
+  const written = [{ path: MANIFEST_FILE, oid: blob }]
+  for (const [name, content] of Object.entries(files)) {
+    if (name === MANIFEST_FILE || !/^[\w.-]+$/.test(name) || name.startsWith('.')) {
+      throw new RevisionError(`«${name}» cannot be stored beside the manifest`, 'invalid-argument')
+    }
+    written.push({ path: name, oid: await git.writeBlob({ fs, dir, blob: new TextEncoder().encode(content) }) })
+  }
   let entries: TreeEntry[] = []
   if (parent !== null) {
-    if ((await manifestBlobOid(dir, parent)) === blob) {
+    const tree = (await git.readTree({ fs, dir, oid: parent })).tree
+    if (written.every(w => tree.some(entry => entry.path === w.path && entry.oid === w.oid))) {
       return { oid: parent, changed: false }
     }
-    entries = (await git.readTree({ fs, dir, oid: parent })).tree.filter(entry => entry.path !== MANIFEST_FILE)
+    entries = tree.filter(entry => !written.some(w => w.path === entry.path))
   }
-  entries.push({ mode: '100644', path: MANIFEST_FILE, oid: blob, type: 'blob' })
+  for (const w of written) entries.push({ mode: '100644', path: w.path, oid: w.oid, type: 'blob' })
   const tree = await git.writeTree({ fs, dir, tree: entries })
   const oid = await git.commit({
     fs,
@@ -547,6 +551,8 @@ export interface CommitOptions {
   message: string
   /** Author time; now when left out (fixed dates give reproducible oids, e.g. in a demo seed). */
   date?: Date
+  /** Other text files written beside the manifest in the same commit (e.g. page.md), by name. */
+  files?: Record<string, string>
 }
 
 /**
@@ -560,7 +566,21 @@ export async function commitManifest(dir: string, manifest: Manifest, options: C
   canonicalManifestJson(manifest)
   return await withRepositoryLock(dir, async () => {
     const head = await requireHead(dir)
-    return await writeManifestCommit(dir, manifest, head, author, message, options.date)
+    return await writeManifestCommit(dir, manifest, head, author, message, options.date, options.files)
+  })
+}
+
+/** The text of a file beside the manifest in a revision ('HEAD' or a full oid), or null when it has none. */
+export async function readRevisionFile(dir: string, ref: string, filepath: string): Promise<string | null> {
+  return await withRepositoryLock(dir, async () => {
+    const { oid } = await resolveRevision(dir, ref)
+    try {
+      return new TextDecoder().decode((await git.readBlob({ fs, dir, oid, filepath })).blob)
+    }
+    catch (error) {
+      if (isGitError(error, 'NotFoundError')) return null
+      throw error
+    }
   })
 }
 

@@ -174,6 +174,25 @@ const rows: Row[] = [
   { route: 'GET /api/companions/[slug]/figures/[number]/overlay', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/figures/1/overlay?revision=${figureRevision}`) },
   { route: 'GET /files/[slug]/figures/[number]', expect: readers(200), call: as => status(as, 'GET', `/files/${slug}/figures/1?format=svg`) },
   // rows: companion page (page text, preview)
+  ...(() => {
+    /** A fresh companion made by the fixture's editor, with the role under test in it, to be written on. */
+    async function throwawayCompanionFor(as: Role): Promise<string> {
+      const made = uniqueName('matrix-page-')
+      const created = await accounts.editor.client.post('/api/companions', { title: 'Page written by the matrix', slug: made })
+      if (created.status !== 201) throw new Error(`throwaway companion not created: ${created.status}`)
+      if (as === 'reader' || as === 'reviewer' || as === 'author') {
+        const added = await accounts.editor.client.post(`/api/companions/${made}/members`, { email: accounts[as].email, role: as })
+        if (added.status !== 201) throw new Error(`throwaway member not added: ${added.status}`)
+      }
+      return made
+    }
+    const pageRows: Row[] = [
+      { route: 'GET /api/companions/[slug]/page', expect: readers(200), call: as => status(as, 'GET', `/api/companions/${slug}/page`) },
+      { route: 'PUT /api/companions/[slug]/page', expect: authors(200), call: async as => status(as, 'PUT', `/api/companions/${await throwawayCompanionFor(as)}/page`, { text: `Written by ${as}: $x^2$.` }) },
+      { route: 'POST /api/companions/[slug]/page/preview', expect: authors(200), call: as => status(as, 'POST', `/api/companions/${slug}/page/preview`, { text: `Previewed by ${as}: $x^2$.` }) },
+    ]
+    return pageRows
+  })(),
 
   // rows: remarks and notices
 

@@ -13,9 +13,10 @@ export default defineEventHandler(async (event) => {
   const revision = asked ?? await headOid(dir).catch(() => null)
   if (!revision) throw createError({ statusCode: 404, statusMessage: 'This companion has no revision yet: upload an ensemble first.' })
   const manifest = await readManifest(dir, revision).catch(revisionProblem)
+  const pageText = await readRevisionFile(dir, revision, 'page.md').catch(revisionProblem)
   setResponseHeaders(event, {
     'Content-Type': 'application/zip',
     'Content-Disposition': `attachment; filename="${companion.slug}-${revision.slice(0, 8)}.zip"`,
   })
-  return sendStream(event, await streamArchive(companion, manifest, revision))
+  return sendStream(event, await streamArchive(companion, manifest, revision, pageText))
 })
