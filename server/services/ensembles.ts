@@ -245,8 +245,11 @@ export async function removeEnsemble(companion: CompanionRow, user: Pick<User, '
 export async function restoreCompanionRevision(companion: CompanionRow, user: Pick<User, 'id' | 'displayName' | 'email'>, oid: string) {
   const dir = repositoryDirectory(companion.id)
   const manifest = await readManifest(dir, oid).catch(revisionProblem)
+  // The page text comes back with the data (revisions from before the page existed had none).
+  const pageText = (await readRevisionFile(dir, oid, 'page.md').catch(revisionProblem)) ?? ''
   const short = oid.slice(0, 8)
   const change = await commitChange(companion, user, async (tx) => {
+    await tx.update(tables.companions).set({ pageText }).where(eq(tables.companions.id, companion.id))
     await tx.delete(tables.ensembles).where(eq(tables.ensembles.companionId, companion.id))
     for (const e of manifest.ensembles) {
       const [row] = await tx.insert(tables.ensembles).values({
@@ -280,7 +283,7 @@ export async function restoreCompanionRevision(companion: CompanionRow, user: Pi
         })))
       }
     }
-    return { result: manifest.ensembles.length, message: `Restore revision ${short}` }
+    return { result: manifest.ensembles.length, message: `Restore revision ${short}`, files: { 'page.md': pageText } }
   })
   await requeueAffected(companion.id)
   return change

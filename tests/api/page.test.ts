@@ -134,3 +134,19 @@ describe('the companion page', () => {
     expect(page.body.text).not.toContain('A reader was here.')
   })
 })
+
+describe('restoring a revision', () => {
+  it('brings back the page text of that revision, in the database and in page.md', async () => {
+    const first = await author.client.request<{ revision: string }>('PUT', `/api/companions/${slug}/page`, { text: 'First wording of the page.\n', message: 'first wording' })
+    await author.client.request('PUT', `/api/companions/${slug}/page`, { text: 'Second wording of the page.\n', message: 'second wording' })
+    const restored = await author.client.post<{ revision: string }>(`/api/companions/${slug}/revisions/${first.body.revision}/restore`)
+    expect(restored.status).toBe(200)
+    const page = await reader.client.get<PageReply>(`/api/companions/${slug}/page`)
+    expect(page.body.text).toBe('First wording of the page.\n')
+    expect(page.body.revision).toBe(restored.body.revision)
+    const archive = await fetch(`${baseUrl}/files/${slug}/archive?revision=${restored.body.revision}`, { headers: { 'cookie': author.client.cookie, 'origin': baseUrl, 'x-forwarded-for': author.client.address } })
+    const files = unzipSync(new Uint8Array(await archive.arrayBuffer()))
+    const name = Object.keys(files).find(f => f.endsWith('page.md'))!
+    expect(strFromU8(files[name]!)).toBe('First wording of the page.\n')
+  })
+})
