@@ -124,10 +124,10 @@ export const companionEvents = mysqlTable('companion_event', {
 export const REMARK_STATES = ['open', 'settled'] as const
 
 /** Where a remark points: the whole figure, one datum (a clicked point) or a rectangle in data coordinates. */
-export type RemarkAnchor =
-  | { kind: 'figure' }
-  | { kind: 'datum', x: number, y: number, series?: string, row?: number }
-  | { kind: 'region', x0: number, x1: number, y0: number, y1: number }
+export type RemarkAnchor
+  = | { kind: 'figure' }
+    | { kind: 'datum', x: number, y: number, series?: string, row?: number }
+    | { kind: 'region', x0: number, x1: number, y0: number, y1: number }
 
 // A remark: a thread on a figure of one revision of a companion.
 export const remarks = mysqlTable('remark', {
