@@ -4,7 +4,7 @@ import { mkdirSync } from 'node:fs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Browser, BrowserContext, Page } from 'playwright-core'
 import { launchBrowser } from '../support/browser'
-import { baseUrl, planeSetting, signUp, uniqueName } from '../support/http'
+import { baseUrl, planeSetting, signUp, uniqueName, withDatabase } from '../support/http'
 import type { TestAccount } from '../support/http'
 import { startRunner } from '../support/runner'
 import type { Runner } from '../support/runner'
@@ -134,6 +134,34 @@ describe('remarks on a live figure', () => {
     await page.getByLabel('State').selectOption('settled')
     await expect.poll(() => page.getByTestId('remark-thread').count(), { timeout: 10_000 }).toBe(1)
     await expect(page.getByTestId('remark-thread').textContent()).resolves.toContain('is the bin too narrow?')
+    await context.close()
+  })
+})
+
+describe('remark e-mail choices', () => {
+  it('sets the remark e-mail preference on the account page', async () => {
+    const { context, page } = await pageAs(author)
+    await page.goto('/account')
+    await page.locator('html[data-ready="true"]').waitFor()
+    await expect(page.getByLabel('Each at once').isChecked()).resolves.toBe(true)
+    await page.getByLabel('A daily digest').check()
+    await page.getByTestId('profile-submit').click()
+    await page.getByText('Your profile is saved.').waitFor()
+    expect((await author.client.get<{ account: { remarkMail: string } }>('/api/account')).body.account.remarkMail).toBe('daily')
+    await context.close()
+  })
+
+  it('turns remark e-mail off from the digest\'s link without signing in, and says when a link is unknown', async () => {
+    const key = `e2e-key-${Date.now().toString(36)}`
+    await withDatabase(c => c.query('UPDATE user SET mail_key = ? WHERE id = ?', [key, author.id]))
+    const context = await browser.newContext({ baseURL: baseUrl })
+    const page = await context.newPage()
+    await page.goto(`/mail/stop?key=${key}x`)
+    await page.locator('[data-testid="mail-stop"][data-outcome="unknown"]').waitFor()
+    await page.goto(`/mail/stop?key=${key}`)
+    await page.locator('[data-testid="mail-stop"][data-outcome="stopped"]').waitFor()
+    await page.getByRole('link', { name: 'your account page' }).waitFor()
+    expect((await author.client.get<{ account: { remarkMail: string } }>('/api/account')).body.account.remarkMail).toBe('none')
     await context.close()
   })
 })
