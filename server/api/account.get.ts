@@ -1,6 +1,6 @@
-import { accountView } from '../services/accounts'
+import { accountView, remarkMailOf } from '../services/accounts'
 
-export default defineEventHandler((event) => {
+export default defineEventHandler(async (event) => {
   const user = requireUser(event)
-  return { account: accountView(user) }
+  return { account: { ...accountView(user), remarkMail: await remarkMailOf(user.id) } }
 })

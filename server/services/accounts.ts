@@ -65,5 +65,12 @@ export async function updateProfile(userId: string, input: ProfileInput): Promis
     displayName: input.displayName,
     affiliation: input.affiliation,
     orcid: input.orcid === '' ? null : input.orcid,
+    ...(input.remarkMail ? { remarkMail: input.remarkMail } : {}),
   }).where(eq(tables.users.id, userId))
+}
+
+/** How remark notifications reach the account (not part of the session's user). */
+export async function remarkMailOf(userId: string): Promise<'immediate' | 'daily' | 'none'> {
+  const [row] = await useDB().select({ remarkMail: tables.users.remarkMail }).from(tables.users).where(eq(tables.users.id, userId)).limit(1)
+  return row?.remarkMail ?? 'immediate'
 }

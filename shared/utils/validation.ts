@@ -31,6 +31,8 @@ export const profileSchema = z.object({
   affiliation: z.string().trim().max(200, 'An affiliation has at most 200 characters.'),
   orcid: z.string().trim().toUpperCase().max(19)
     .refine(v => v === '' || researcherIdProblem(v) === null, { message: 'That researcher identifier is not valid: use the form 0000-0000-0000-000X with a correct check digit.' }),
+  // How remark notifications reach the account; left as it is when not given.
+  remarkMail: z.enum(['immediate', 'daily', 'none'], { message: 'Choose each message at once, a daily digest, or none.' }).optional(),
 })
 
 export const slugSchema = z.string().trim().toLowerCase()

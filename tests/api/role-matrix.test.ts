@@ -195,6 +195,43 @@ const rows: Row[] = [
   })(),
 
   // rows: remarks and notices
+  {
+    route: 'GET /api/companions/[slug]/remarks',
+    expect: { anonymous: 404, member: 404, reader: 403, reviewer: 200, author: 200, editor: 200, admin: 200 },
+    call: as => status(as, 'GET', `/api/companions/${slug}/remarks?figure=1`),
+  },
+  {
+    route: 'POST /api/companions/[slug]/remarks',
+    expect: { anonymous: 404, member: 404, reader: 403, reviewer: 201, author: 201, editor: 201, admin: 201 },
+    call: as => status(as, 'POST', `/api/companions/${slug}/remarks`, { figureNumber: 1, anchor: { kind: 'datum', x: 0.1, y: 1 }, body: `A remark by ${as}` }),
+  },
+  {
+    route: 'GET /api/companions/[slug]/remarks/[id]',
+    expect: { anonymous: 404, member: 404, reader: 403, reviewer: 200, author: 200, editor: 200, admin: 200 },
+    call: async (as) => {
+      const made = await accounts.reviewer.client.post<{ remark: { id: number } }>(`/api/companions/${slug}/remarks`, { figureNumber: 1, anchor: { kind: 'region', x0: 0.05, x1: 0.1, y0: 0.5, y1: 1.5 }, body: 'A throwaway remark.' })
+      return status(as, 'GET', `/api/companions/${slug}/remarks/${made.body.remark.id}`)
+    },
+  },
+  {
+    route: 'POST /api/companions/[slug]/remarks/[id]/messages',
+    expect: { anonymous: 404, member: 404, reader: 403, reviewer: 201, author: 201, editor: 201, admin: 201 },
+    call: async (as) => {
+      const made = await accounts.reviewer.client.post<{ remark: { id: number } }>(`/api/companions/${slug}/remarks`, { figureNumber: 1, anchor: { kind: 'region', x0: 0.05, x1: 0.1, y0: 0.5, y1: 1.5 }, body: 'A throwaway remark.' })
+      return status(as, 'POST', `/api/companions/${slug}/remarks/${made.body.remark.id}/messages`, { body: `A reply by ${as}` })
+    },
+  },
+  {
+    // Made by the editor: a reviewer who did not write it may not settle it.
+    route: 'PATCH /api/companions/[slug]/remarks/[id]',
+    expect: { anonymous: 404, member: 404, reader: 403, reviewer: 403, author: 200, editor: 200, admin: 200 },
+    call: async (as) => {
+      const made = await accounts.editor.client.post<{ remark: { id: number } }>(`/api/companions/${slug}/remarks`, { figureNumber: 1, anchor: { kind: 'region', x0: 0.05, x1: 0.1, y0: 0.5, y1: 1.5 }, body: 'A throwaway remark.' })
+      return status(as, 'PATCH', `/api/companions/${slug}/remarks/${made.body.remark.id}`, { state: 'settled' })
+    },
+  },
+  { route: 'POST /api/admin/digests', expect: adminsOnly(200), call: as => status(as, 'POST', '/api/admin/digests', {}) },
+  { route: 'POST /api/mail/stop', expect: all(404), call: as => status(as, 'POST', '/api/mail/stop', { key: `no-such-key-${as}` }) },
 
   // rows: reader view, citations, license
   { route: 'GET /api/published', expect: all(200), call: as => status(as, 'GET', '/api/published?q=plasma&page=1') },
