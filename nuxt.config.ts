@@ -68,6 +68,8 @@ export default defineNuxtConfig({
     },
     // The SMTP fake's message list (NUXT_MAIL_INBOX_URL); the development inbox page reads it. Empty in production.
     mailInboxUrl: '',
+    // The hour (UTC) at which daily remark digests go out (NUXT_DIGEST_HOUR).
+    digestHour: 7,
     // The address links in e-mail point at (NUXT_SITE_URL); without it, the address the request came to.
     siteUrl: '',
     auth: {

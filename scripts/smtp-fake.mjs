@@ -52,7 +52,8 @@ const smtp = new SMTPServer({
         subject: mail.subject ?? '',
         text: mail.text ?? '',
         html: typeof mail.html === 'string' ? mail.html : '',
-        headers: Object.fromEntries([...mail.headers].filter(([k]) => ['list-unsubscribe', 'message-id'].includes(k)).map(([k, v]) => [k, String(typeof v === 'object' && v && 'text' in v ? v.text : v)])),
+        // Raw header values (mailparser turns List-* headers into objects).
+        headers: Object.fromEntries((mail.headerLines ?? []).filter(h => ['list-unsubscribe', 'message-id'].includes(h.key)).map(h => [h.key, h.line.slice(h.line.indexOf(':') + 1).trim()])),
         date: new Date().toISOString(),
       }
       messages.push(message)

@@ -74,6 +74,8 @@ describe('remark notices', () => {
     expect(digest.text).toContain('Second point of doubt.')
     expect(digest.html).toContain('/mail/stop?key=')
     expect(linkIn(digest, '/mail/stop?key=')).toMatch(/^https?:\/\/[^/]+\/mail\/stop\?key=[\w-]+$/)
+    // The same link as a List-Unsubscribe header, so mail programs offer it (RFC 2369).
+    expect(digest.headers['list-unsubscribe']).toBe(`<${linkIn(digest, '/mail/stop?key=')}>`)
     expect((await pendingFor(author.id)).every(n => n.sent_at !== null)).toBe(true)
     // Nothing is sent twice.
     await admin.client.post('/api/admin/digests', {})

@@ -136,8 +136,12 @@ describe('citation downloads', () => {
 })
 
 describe('licence', () => {
-  it('lets an author change it, records it in the audit trail, and cites the new one', async () => {
-    const reply = await author.client.request<{ license: string, changed: boolean }>('PUT', `/api/companions/${published}/license`, { license: 'CC0-1.0' })
+  it('is the editor\'s to change once published, is audited, and the citation follows', async () => {
+    // Published: authors no longer change the companion (the course's rule); the editor still may.
+    const refused = await author.client.request<{ message: string }>('PUT', `/api/companions/${published}/license`, { license: 'CC0-1.0' })
+    expect(refused.status).toBe(409)
+    expect(refused.body.message).toMatch(/published/)
+    const reply = await editor.client.request<{ license: string, changed: boolean }>('PUT', `/api/companions/${published}/license`, { license: 'CC0-1.0' })
     expect(reply.status).toBe(200)
     expect(reply.body).toEqual({ license: 'CC0-1.0', changed: true })
     const events = await withDatabase(async (c) => {
@@ -147,7 +151,7 @@ describe('licence', () => {
     expect(events).toHaveLength(1)
     const detail = typeof events[0]!.detail === 'string' ? JSON.parse(events[0]!.detail) : events[0]!.detail
     expect(detail).toEqual({ from: 'CC-BY-4.0', to: 'CC0-1.0' })
-    expect(events[0]!.actor_id).toBe(author.id)
+    expect(events[0]!.actor_id).toBe(editor.id)
     const cited = await new ApiClient().get<Array<{ license: string }>>(`/files/${published}/cite?format=csl-json`)
     expect(cited.body[0]!.license).toBe('CC0-1.0')
     expect((await search(authorFamily)).items[0]!.license).toBe('CC0-1.0')
@@ -159,6 +163,12 @@ describe('licence', () => {
     expect(reply.body.data.fields.license).toMatch(/CC-BY-4.0/)
     const sheet = await author.client.get<{ license: string }>(`/api/companions/${published}/citation`)
     expect(sheet.body.license).toBe('CC0-1.0')
+  })
+
+  it('is the authors\' choice while the companion is a draft', async () => {
+    const reply = await author.client.request<{ license: string, changed: boolean }>('PUT', `/api/companions/${draft}/license`, { license: 'CC-BY-SA-4.0' })
+    expect(reply.status).toBe(200)
+    expect(reply.body).toEqual({ license: 'CC-BY-SA-4.0', changed: true })
   })
 
   it('is not the reviewers\' choice', async () => {
