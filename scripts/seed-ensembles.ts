@@ -90,3 +90,57 @@ const sphereJson = JSON.stringify({
 console.log(`Sphere ground states: ${await upload(cookie, {
   name: 'Coulomb ground states on the sphere, N = 4 to 12', geometry: { kind: 'sphere' }, kernel: { name: 'riesz', s: 1 }, potential: null, beta: null,
 }, 'thomson.json', new TextEncoder().encode(sphereJson))}`)
+
+// A computation, a figure and the companion page, as the demo author would make them (once).
+async function api<T>(method: string, path: string, body?: unknown): Promise<T> {
+  const response = await fetch(`${base}/api/companions/${demoCompanion.slug}${path}`, {
+    method,
+    headers: { origin: base, cookie, ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  })
+  if (!response.ok) throw new Error(`${method} ${path}: ${response.status} ${await response.text()}`)
+  return await response.json() as T
+}
+
+const { ensembles } = await api<{ ensembles: Array<{ id: number, name: string }> }>('GET', '/ensembles')
+const four = ensembles.find(e => e.name.startsWith('β = 2 exact samples (Ginibre), N = 400'))
+const allN = ensembles.find(e => e.name === 'β = 2 exact samples, all N')
+const { computations } = await api<{ computations: Array<{ id: number, name: string }> }>('GET', '/computations')
+async function computation(name: string, quantity: string, ensembleIds: number[], parameters: Record<string, number>) {
+  const found = computations.find(c => c.name === name)
+  if (found) return found.id
+  return (await api<{ id: number }>('POST', '/computations', { name, quantity, ensembleIds, parameters })).id
+}
+if (four && allN) {
+  const g = await computation('Pair correlation at β = 2, N = 400', 'statistic:pair-correlation', [four.id], { 'window-radius': 0.9, 'bins': 16, 'rmax': 0.25 })
+  const energy = await computation('Energies at β = 2, every N', 'energy', [allN.id], {})
+  const { figures } = await api<{ figures: Array<{ number: number }> }>('GET', '/figures')
+  if (figures.length === 0) {
+    await api('POST', '/figures', { title: 'Pair correlation of the β = 2 plasma', template: 'pair-correlation', computationIds: [g], caption: 'Four exact samples at N = 400, bulk points within 0.9 of the centre, against the β = 2 reference 1 − exp(−πρr²).' })
+  }
+  const page = await api<{ text: string }>('GET', '/page')
+  if (!page.text) {
+    await api('PUT', '/page', {
+      message: 'First draft of the companion page',
+      text: [
+        '## What this companion holds',
+        '',
+        'The ensembles are exact samples of the two-dimensional one-component plasma at $\\beta = 2$ with $V(x) = |x|^2$,',
+        'made by the engine\'s Ginibre sampler from fixed seeds, at $N = 100, 200, 400, 800$. Every number below is',
+        'recomputed by the server from those files. The energy is, in the canonical convention,',
+        '',
+        '$$H_N = \\sum_{i \\ne j} -\\log|x_i - x_j| + N \\sum_{i=1}^{N} V(x_i).$$',
+        '',
+        '## Pair correlation',
+        '',
+        '@figure 1',
+        '',
+        '## Energies',
+        '',
+        `@table ${energy} columns=N,pairSum,confinement,H rows=8`,
+        '',
+      ].join('\n'),
+    })
+  }
+  console.log('Demo computations, figure and page: in place')
+}
