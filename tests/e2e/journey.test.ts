@@ -99,14 +99,14 @@ describe('the journey of a companion', () => {
     await editorPage.waitForURL(`**/c/${slug}`)
     await open(editorPage, `/c/${slug}/people`)
     for (const [address, role] of [[authorAddress, 'author'], [reviewerAddress, 'reviewer']] as const) {
-      await editorPage.getByLabel('E-mail address').fill(address)
+      await editorPage.getByTestId('field-inviteEmail').fill(address)
       await editorPage.locator('#invite-role').selectOption(role)
       await editorPage.getByTestId('invite-submit').click()
       await editorPage.getByText(`The invitation is on its way to ${address}.`).waitFor()
     }
     await expect(editorPage.getByTestId('invitation-table').textContent()).resolves.toContain(reviewerAddress)
     await editorPage.screenshot({ path: `${shots}/01-invitations.png`, fullPage: true })
-  })
+  }, 120_000)
 
   it('the invitations arrive and their links work: the author follows hers from the development inbox', async () => {
     authorPage = await newPage()
@@ -126,7 +126,7 @@ describe('the journey of a companion', () => {
     const invitation = await waitForMail(reviewerAddress, /Invitation: reviewer/)
     expect(invitation.text).toContain(title)
     await acceptInvitation(reviewerPage, linkIn(invitation, '/invitations/'), reviewerAddress, reviewerName)
-  })
+  }, 120_000)
 
   it('the author uploads an ensemble, attaches a computation and draws a figure', async () => {
     await open(authorPage, `/c/${slug}/data`)
@@ -154,7 +154,7 @@ describe('the journey of a companion', () => {
     await authorPage.getByTestId('figure-submit').click()
     await authorPage.waitForURL(`**/c/${slug}/figures/1`)
     await waitForFigureStatus(authorPage, 1, 'current')
-  })
+  }, 120_000)
 
   it('the author writes the page with math and the live figure, and submits it for review', async () => {
     await open(authorPage, `/c/${slug}/write`)
@@ -183,7 +183,7 @@ describe('the journey of a companion', () => {
     await authorPage.screenshot({ path: `${shots}/03-submitted.png`, fullPage: true })
     const told = await waitForMail(reviewerAddress, /now in review/)
     expect(told.text).toContain('The data and the page are ready for the referees.')
-  })
+  }, 120_000)
 
   it('the reviewer pins a remark to a point of the figure', async () => {
     await open(reviewerPage, `/c/${slug}/figures/1`)
@@ -197,7 +197,7 @@ describe('the journey of a companion', () => {
     await reviewerPage.getByTestId('remark-thread').first().waitFor()
     await reviewerPage.locator('[data-testid="figure-chart"] .remarkpins_marks path').first().waitFor({ timeout: 10_000 })
     await reviewerPage.screenshot({ path: `${shots}/04-remark.png`, fullPage: true })
-  })
+  }, 120_000)
 
   it('the author is e-mailed, opens the remark and replies', async () => {
     const notice = await waitForMail(authorAddress, /opened a remark on figure 1/)
@@ -213,7 +213,7 @@ describe('the journey of a companion', () => {
     await expect.poll(() => thread.getByTestId('remark-message').count(), { timeout: 10_000 }).toBe(2)
     // The reviewer hears of the answer.
     await waitForMail(reviewerAddress, /replied to a remark on figure 1/)
-  })
+  }, 120_000)
 
   it('the author uploads a corrected ensemble and the figure recomputes', async () => {
     const before = await authorPage.evaluate(async (s) => {
@@ -233,7 +233,7 @@ describe('the journey of a companion', () => {
     expect(after).not.toBe(before)
     await open(authorPage, `/c/${slug}/figures/1`)
     await authorPage.getByTestId('figure-status-current').first().waitFor()
-  })
+  }, 120_000)
 
   it('the editor accepts and publishes the companion', async () => {
     for (const [action, reason] of [['Accept', 'Both points raised are answered.'], ['Publish', 'The manuscript has appeared.']] as const) {
@@ -245,7 +245,7 @@ describe('the journey of a companion', () => {
     }
     await expect(editorPage.getByTestId('course-events').textContent()).resolves.toContain('The manuscript has appeared.')
     await editorPage.screenshot({ path: `${shots}/06-published.png`, fullPage: true })
-  })
+  }, 120_000)
 
   it('an anonymous reader opens the page, sees the live figure and downloads the dataset', async () => {
     const reader = await newPage()
@@ -266,7 +266,7 @@ describe('the journey of a companion', () => {
     // The corrected file: 400 points (and a header), the first one at angle 0 and radius √(0.5/400).
     expect(rows.filter(r => /^-?\d/.test(r))).toHaveLength(400)
     expect(Number(rows.find(r => /^-?\d/.test(r))!.split(',')[0])).toBeCloseTo(Math.sqrt(0.5 / 400), 12)
-  })
+  }, 120_000)
 
   it('never let the reviewer\'s identity reach the author', async () => {
     expect(seenByAuthor.length).toBeGreaterThan(20)
@@ -276,5 +276,5 @@ describe('the journey of a companion', () => {
     const mail = (await mailTo(authorAddress)).map(m => `${m.subject}\n${m.text}\n${m.html}`).join('\n')
     expect(mail).not.toContain(reviewerName)
     expect(mail).not.toContain(reviewerAddress)
-  })
+  }, 120_000)
 })
