@@ -116,7 +116,7 @@ if (four && allN) {
   const energy = await computation('Energies at β = 2, every N', 'energy', [allN.id], {})
   const { figures } = await api<{ figures: Array<{ number: number }> }>('GET', '/figures')
   if (figures.length === 0) {
-    await api('POST', '/figures', { title: 'Pair correlation of the β = 2 plasma', template: 'pair-correlation', computationIds: [g], caption: 'Four exact samples at N = 400, bulk points within 0.9 of the centre, against the β = 2 reference 1 − exp(−πρr²).' })
+    await api('POST', '/figures', { title: 'Pair correlation of the β = 2 plasma', template: 'pair-correlation', computationIds: [g], caption: 'Four exact samples at N = 400, points within 0.9 of the centre, shell averages with their spread across configurations.' })
   }
   const page = await api<{ text: string }>('GET', '/page')
   if (!page.text) {
