@@ -1,5 +1,6 @@
 // The companion page: its text (companion.page_text and page.md in every revision), rendered to
 // sanitised blocks, with the figures and computations it names checked against the companion.
+import { createHash } from 'node:crypto'
 import type { User } from 'lucia'
 import type { CompanionRow } from '#shared/types/db'
 import type { FigureStatus } from '#shared/figures/types'
@@ -61,14 +62,26 @@ export async function pageView(companion: CompanionRow) {
   for (const f of figureRows) figures.push({ number: f.number, title: f.title, status: (await drawFigure(f)).status })
   const computations: PageComputationRef[] = known.computations.filter(c => refs.computations.includes(c.id))
   const revision = await headOid(repositoryDirectory(companion.id)).catch(() => null)
-  return { text, blocks: rendered.blocks, problems, figures, computations, revision }
+  return { text, textHash: textHash(text), blocks: rendered.blocks, problems, figures, computations, revision }
+}
+
+/** SHA-256 of a page text (hex), to tell whether it changed since someone loaded it. */
+export function textHash(text: string): string {
+  return createHash('sha256').update(text, 'utf8').digest('hex')
 }
 
 /**
  * Stores the page text and commits page.md with the manifest as one revision, with its audit
  * entry, in one transaction. A directive naming a missing figure or computation is a 422.
  */
-export async function savePage(companion: CompanionRow, user: Pick<User, 'id' | 'displayName' | 'email'>, text: string, message?: string) {
+export async function savePage(companion: CompanionRow, user: Pick<User, 'id' | 'displayName' | 'email'>, text: string, message?: string, basedOn?: string) {
+  if (basedOn && basedOn !== textHash(companion.pageText) && text !== companion.pageText) {
+    throw createError({
+      statusCode: 409,
+      statusMessage: 'Someone saved the page after you opened it. Copy your text, reload the page to see theirs, and combine the two.',
+      data: { fields: { text: 'The page changed since you opened it.' }, current: { text: companion.pageText, textHash: textHash(companion.pageText) } },
+    })
+  }
   const rendered = renderPageWithDirectives(text)
   const missing = missingReferences(rendered.directives, await knownItems(companion.id))
   if (missing.length) {
@@ -91,5 +104,5 @@ export async function savePage(companion: CompanionRow, user: Pick<User, 'id' | 
       },
     }
   })
-  return { revision, changed, problems: rendered.problems }
+  return { revision, changed, problems: rendered.problems, textHash: textHash(text) }
 }

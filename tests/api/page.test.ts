@@ -1,6 +1,7 @@
 // The companion page over HTTP: saving makes a revision holding page.md, reading gives the rendered
 // blocks, bad text is refused field by field and stores nothing, and only authors and editors write.
 import { beforeAll, describe, expect, it } from 'vitest'
+import { createHash } from 'node:crypto'
 import { unzipSync, strFromU8 } from 'fflate'
 import { baseUrl, planeSetting, signUp, uniqueCsv, uniqueName, withDatabase } from '../support/http'
 import type { TestAccount } from '../support/http'
@@ -148,5 +149,25 @@ describe('restoring a revision', () => {
     const files = unzipSync(new Uint8Array(await archive.arrayBuffer()))
     const name = Object.keys(files).find(f => f.endsWith('page.md'))!
     expect(strFromU8(files[name]!)).toBe('First wording of the page.\n')
+  })
+})
+
+describe('two writers', () => {
+  it('refuses a save over a text someone else saved after the writer loaded the page, and keeps theirs', async () => {
+    const coauthor = await signUp('page-coauthor')
+    expect((await author.client.post(`/api/companions/${slug}/members`, { email: coauthor.email, role: 'author' })).status).toBe(201)
+    const loaded = await author.client.get<PageReply & { textHash: string }>(`/api/companions/${slug}/page`)
+    const other = await coauthor.client.get<PageReply & { textHash: string }>(`/api/companions/${slug}/page`)
+    expect(other.body.textHash).toBe(loaded.body.textHash)
+    // The hash is the SHA-256 of the stored text (FIPS 180-4), as any sha256 tool gives it.
+    expect(loaded.body.textHash).toBe(createHash('sha256').update(loaded.body.text).digest('hex'))
+    const first = await coauthor.client.request<{ textHash: string }>('PUT', `/api/companions/${slug}/page`, { text: 'The co-author\'s wording.\n', basedOn: other.body.textHash })
+    expect(first.status).toBe(200)
+    const late = await author.client.request<{ message: string, data: { current: { text: string } } }>('PUT', `/api/companions/${slug}/page`, { text: 'The author\'s wording.\n', basedOn: loaded.body.textHash })
+    expect(late.status).toBe(409)
+    expect(late.body.data.current.text).toBe('The co-author\'s wording.\n')
+    expect((await reader.client.get<PageReply>(`/api/companions/${slug}/page`)).body.text).toBe('The co-author\'s wording.\n')
+    // Based on the newer text, the save goes through.
+    expect((await author.client.request('PUT', `/api/companions/${slug}/page`, { text: 'The author\'s wording.\n', basedOn: first.body.textHash })).status).toBe(200)
   })
 })

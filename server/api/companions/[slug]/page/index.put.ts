@@ -4,7 +4,7 @@ import { savePage } from '../../../../services/page'
 
 export default defineEventHandler(async (event) => {
   const { slug } = readParamsWith(event, slugParams)
-  const { text, message } = await readBodyWith(event, pageSaveSchema)
+  const { text, message, basedOn } = await readBodyWith(event, pageSaveSchema)
   const { companion, user } = await requireCompanionRole(event, slug, 'author')
-  return savePage(companion, user!, text, message)
+  return savePage(companion, user!, text, message, basedOn)
 })
