@@ -3,6 +3,7 @@
 // companion is published with its remarks public. Every name shown goes through `nameFor`, from the
 // caller's access, so authors see "Reviewer <n>" and never a reviewer's name, id or e-mail.
 import type { H3Event } from 'h3'
+import type { User } from 'lucia'
 import type { RemarkAnchor } from '../db/schema'
 import type { CompanionAccess } from '../utils/guards'
 import type { RemarkState } from '#shared/utils/remarks'
@@ -194,4 +195,52 @@ export async function setRemarkState(access: CompanionAccess, id: number, state:
     })
   }
   return findRemark(access, id)
+}
+
+export interface WaitingRemark {
+  companion: { slug: string, title: string }
+  remarkId: number
+  figureNumber: number
+  lastBy: ShownPerson
+  excerpt: string
+  at: Date
+}
+
+/**
+ * Open remarks in the companions the account reviews, writes or edits whose last message is
+ * someone else's: what waits for an answer (the desk lists them). Names as each companion shows them.
+ */
+export async function remarksWaitingFor(user: User): Promise<WaitingRemark[]> {
+  const db = useDB()
+  const m = tables.memberships
+  const c = tables.companions
+  const memberships = await db.select({ companion: c, role: m.role }).from(m).innerJoin(c, eq(c.id, m.companionId))
+    .where(and(eq(m.userId, user.id), inArray(m.role, ['reviewer', 'author', 'editor'])))
+  const out: WaitingRemark[] = []
+  for (const { companion, role } of memberships) {
+    const open = await db.select().from(tables.remarks)
+      .where(and(eq(tables.remarks.companionId, companion.id), eq(tables.remarks.state, 'open')))
+      .orderBy(desc(tables.remarks.updatedAt)).limit(50)
+    if (!open.length) continue
+    const access: CompanionAccess = { companion, role, membershipRole: role, user }
+    const people = await peopleOf(companion.id)
+    const messages = await db.select().from(tables.remarkMessages)
+      .where(inArray(tables.remarkMessages.remarkId, open.map(r => r.id)))
+      .orderBy(asc(tables.remarkMessages.createdAt), asc(tables.remarkMessages.id))
+    for (const remark of open) {
+      const last = messages.filter(x => x.remarkId === remark.id).at(-1)
+      if (!last || last.authorId === user.id) continue
+      // Reviewers answer threads they take part in; authors and editors answer every thread.
+      if (role === 'reviewer' && remark.authorId !== user.id && !messages.some(x => x.remarkId === remark.id && x.authorId === user.id)) continue
+      out.push({
+        companion: { slug: companion.slug, title: companion.title },
+        remarkId: remark.id,
+        figureNumber: remark.figureNumber,
+        lastBy: nameFor(access, await personFor(people, last.authorId)),
+        excerpt: last.body.length > 160 ? `${last.body.slice(0, 157)}…` : last.body,
+        at: last.createdAt,
+      })
+    }
+  }
+  return out.sort((a, b) => b.at.getTime() - a.at.getTime()).slice(0, 50)
 }

@@ -139,6 +139,22 @@ describe('remarks', () => {
     expect(Object.keys(empty.body.data.fields)).toEqual(['body'])
   })
 
+  it('lists on the desk the open threads whose last word is someone else\'s, named as the companion names them', async () => {
+    type Waiting = { remarks: Array<{ remarkId: number, lastBy: { name: string }, excerpt: string }> }
+    // After the author's reply: the reviewer who opened the thread owes the next word, the author does not.
+    const forReviewer = await reviewer.client.get<Waiting>('/api/account/remarks')
+    expect(forReviewer.body.remarks.find(r => r.remarkId === datumId)?.excerpt).toContain('widen it')
+    expect((await author.client.get<Waiting>('/api/account/remarks')).body.remarks.map(r => r.remarkId)).not.toContain(datumId)
+    // The other reviewer took no part in it; the editor sees every open thread.
+    expect((await otherReviewer.client.get<Waiting>('/api/account/remarks')).body.remarks.map(r => r.remarkId)).not.toContain(datumId)
+    expect((await editor.client.get<Waiting>('/api/account/remarks')).body.remarks.map(r => r.remarkId)).toContain(datumId)
+    // A thread the reviewer opened and nobody answered waits for the author, with the reviewer numbered.
+    const forAuthor = await author.client.get<Waiting>('/api/account/remarks')
+    expect(forAuthor.body.remarks.length).toBeGreaterThan(0)
+    expect(forAuthor.body.remarks.every(r => r.lastBy.name === 'Reviewer 1')).toBe(true)
+    expect(JSON.stringify(forAuthor.body)).not.toContain(reviewerName)
+  })
+
   it('is settled and reopened by its writer or an author, never by another reviewer', async () => {
     const other = await otherReviewer.client.patch(`/api/companions/${slug}/remarks/${datumId}`, { state: 'settled' })
     expect(other.status).toBe(403)

@@ -278,6 +278,7 @@ const rows: Row[] = [
       return status(as, 'POST', `/api/invitations/${invitationToken(mail)}/accept`, {})
     },
   },
+  { route: 'GET /api/account/remarks', expect: signedIn(200), call: as => status(as, 'GET', '/api/account/remarks') },
   { route: 'GET /api/account/invitations', expect: signedIn(200), call: as => status(as, 'GET', '/api/account/invitations') },
   { route: 'POST /api/account/invitations/[id]/accept', expect: signedIn(404), call: as => status(as, 'POST', '/api/account/invitations/999999999/accept', {}) },
   { route: 'POST /api/auth/password-reset', expect: all(202), call: as => status(as, 'POST', '/api/auth/password-reset', { email: `${uniqueName('nobody')}@tests.example` }) },
