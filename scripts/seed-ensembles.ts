@@ -19,13 +19,13 @@ function ensembleOf(configurations: Configuration[], labels: Array<Record<string
   return { d: configurations[0]!.d, configurations, labels, format: 'npy', warnings: [] }
 }
 
-async function signIn(): Promise<string> {
+async function signIn(who: { email: string, password: string } = author): Promise<string> {
   const response = await fetch(`${base}/api/auth/sign-in`, {
     method: 'POST',
     headers: { 'content-type': 'application/json', 'origin': base },
-    body: JSON.stringify({ email: author.email, password: author.password }),
+    body: JSON.stringify({ email: who.email, password: who.password }),
   })
-  if (!response.ok) throw new Error(`the demo author could not sign in (${response.status})`)
+  if (!response.ok) throw new Error(`the demo account ${who.email} could not sign in (${response.status})`)
   return response.headers.getSetCookie()[0]!.split(';')[0]!
 }
 
@@ -144,5 +144,20 @@ if (four && allN) {
       ].join('\n'),
     })
   }
-  console.log('Demo computations, figure and page: in place')
+  // The review under way: the authors submitted, the reviewer remarked on one shell of figure 1.
+  const { companion } = await api<{ companion: { state: string } }>('GET', '')
+  if (companion.state === 'draft') {
+    await api('POST', '/state', { to: 'in_review', reason: 'Data, figure and page are ready for the referee.' })
+  }
+  const reviewer = demoAccounts.find(a => a.email === 'reviewer@harbourlane.example')!
+  const reviewerCookie = await signIn(reviewer)
+  const { remarks } = await api<{ remarks: unknown[] }>('GET', '/remarks', undefined, reviewerCookie)
+  if (remarks.length === 0) {
+    await api('POST', '/remarks', {
+      figureNumber: 1,
+      anchor: { kind: 'datum', x: 0.0234375, y: 0.25 },
+      body: 'The innermost shells sit on the reference, but with four configurations the spread is large; could more seeds at N = 400 be added?',
+    }, reviewerCookie)
+  }
+  console.log('Demo computations, figure, page and review: in place')
 }

@@ -1,6 +1,7 @@
 // The SMTP fake: accepts every message on 127.0.0.1:<smtp port> (no authentication, no relay) and
 // keeps it, parsed, for the development inbox and the tests. A small HTTP side on <http port>:
-//   GET    /messages[?to=address]   newest first: { messages: [{ id, to, from, subject, text, html, date }] }
+//   GET    /messages[?to=address][&deployment=name]   newest first: { messages: [{ id, to, from, subject, text, html, headers, date }] }
+//          (deployment: the X-Quillfield-Deployment header the application sets, e.g. demo or test)
 //   GET    /messages/<id>           one message
 //   DELETE /messages                forget everything
 // Messages are also appended to <dir>/messages.jsonl and read back on start.
@@ -53,7 +54,7 @@ const smtp = new SMTPServer({
         text: mail.text ?? '',
         html: typeof mail.html === 'string' ? mail.html : '',
         // Raw header values (mailparser turns List-* headers into objects).
-        headers: Object.fromEntries((mail.headerLines ?? []).filter(h => ['list-unsubscribe', 'message-id'].includes(h.key)).map(h => [h.key, h.line.slice(h.line.indexOf(':') + 1).trim()])),
+        headers: Object.fromEntries((mail.headerLines ?? []).filter(h => ['list-unsubscribe', 'message-id', 'x-quillfield-deployment'].includes(h.key)).map(h => [h.key, h.line.slice(h.line.indexOf(':') + 1).trim()])),
         date: new Date().toISOString(),
       }
       messages.push(message)
@@ -73,7 +74,8 @@ const http = createServer((request, response) => {
   }
   if (url.pathname === '/messages' && request.method === 'GET') {
     const to = url.searchParams.get('to')?.toLowerCase()
-    const list = to ? messages.filter(m => m.to.includes(to)) : messages
+    const deployment = url.searchParams.get('deployment')
+    const list = messages.filter(m => (!to || m.to.includes(to)) && (!deployment || m.headers?.['x-quillfield-deployment'] === deployment))
     return send(200, { messages: [...list].reverse().slice(0, 500) })
   }
   if (url.pathname === '/messages' && request.method === 'DELETE') {

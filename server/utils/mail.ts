@@ -62,7 +62,11 @@ export async function sendMail(message: MailMessage): Promise<void> {
       subject: message.subject,
       text: message.text,
       html: message.html,
-      headers: message.unsubscribe ? { 'List-Unsubscribe': `<${message.unsubscribe}>` } : undefined,
+      headers: {
+        // Which deployment sent it, so one SMTP fake can serve the demo and the tests apart.
+        'X-Quillfield-Deployment': String(useRuntimeConfig().deployment),
+        ...(message.unsubscribe ? { 'List-Unsubscribe': `<${message.unsubscribe}>` } : {}),
+      },
     })
   }
   catch (error) {
