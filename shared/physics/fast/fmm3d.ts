@@ -343,7 +343,7 @@ function settings(points: Float64Array, options: Fmm3dOptions): Settings {
   const theta = options.theta ?? fmm3dDefaultTheta(tol)
   if (!(theta > 0 && theta < 1)) throw new EngineInputError(`the opening parameter θ must be in (0, 1) (got ${theta})`)
   const leaf = options.leafSize ?? DEFAULT_LEAF
-  let p = options.order ?? fmm3dOrder(theta, tol)
+  const p = options.order ?? fmm3dOrder(theta, tol)
   if (options.order !== undefined && !(Number.isInteger(p) && p >= 0 && p <= FMM3D_MAX_ORDER)) {
     throw new EngineInputError(`the expansion order must be an integer in [0, ${FMM3D_MAX_ORDER}] (got ${options.order})`)
   }
