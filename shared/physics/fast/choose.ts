@@ -38,11 +38,12 @@ export const FMM2D_MIN_N = 20000
 /** Smallest N for which the 3-D Coulomb FMM (fmm3d.ts) replaces the direct sum in free space, at
  *  tolerances ≥ FMM3D_MIN_TOLERANCE. Measured 2026-12-02 on this 2-core machine (shared with other
  *  work, so contended), uniform points in the unit cube, single-thread SIMD direct sum against the FMM
- *  at tolerance 1e−3 (p = 11, θ = 0.5): N = 1e4: direct 0.105 s, FMM 5.97 s; N = 2e4: direct 0.484 s,
- *  FMM 9.97 s. With the direct sum ∝ N² and the FMM ∝ N, they cross near N ≈ 4·10⁵ (extrapolated);
- *  at 1e−6 (p = 16, θ = 0.4: FMM 67.9 s at N = 2e4) only near N ≈ 3·10⁶, so tighter tolerances keep
- *  the direct sum or the tree code. */
-export const FMM3D_MIN_N = 500000
+ *  at tolerance 1e−3 (p = 11, θ = 0.5; bench/run.ts section 3b): N = 1e4: direct 0.116 s, FMM 4.49 s;
+ *  N = 1e5: direct 10.3 s, FMM 86.6 s. With the direct sum ∝ N² and the FMM ∝ N they cross near
+ *  N ≈ 8·10⁵ (extrapolated; against the 2-thread pool, 5.4 s at 1e5, near 1.6·10⁶). At 1e−6 (p = 16,
+ *  θ = 0.4) the FMM took 67.9 s at N = 2e4 against 0.48 s direct, a crossover near 3·10⁶, so tighter
+ *  tolerances keep the direct sum or the tree code. */
+export const FMM3D_MIN_N = 1000000
 export const FMM3D_MIN_TOLERANCE = 1e-3
 /** Cost model of the tree code against the single-thread SIMD direct sum (measured in bench/run.ts):
  *  about 100 accepted nodes per point at θ = 0.5, each ~15 C(p + 3, 3) flops at ~1e9 flops/s, against
