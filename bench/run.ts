@@ -2,7 +2,8 @@
 //   1. direct sums: plain TypeScript loop vs SIMD WebAssembly (one thread, and the worker pool)
 //   2. the 2-D log FMM vs the fastest direct sum at N = 1e4 and 1e5 (1e6 with --large), with the
 //      measured relative error
-//   3. the 3-D Coulomb tree code vs the direct sum (information)
+//   3. the 3-D Coulomb tree code vs the direct sum (information), and the 3-D Coulomb FMM vs the SIMD
+//      direct sum at N = 1e4 and 1e5 (1e6 with --large, no reference there), with the measured error
 //   4. a NumPy/SciPy peer (scipy.spatial.distance.pdist), when python3 has numpy and scipy
 //   5. samplers and statistics (bench/samplers.ts)
 // Usage: npx tsx bench/run.ts [--large]
@@ -12,6 +13,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { pairSum, pairSumNaive } from '../shared/physics/energy'
 import { fmm2dEnergy } from '../shared/physics/fast/fmm2d'
+import { fmm3dEnergy } from '../shared/physics/fast/fmm3d'
 import { treecodeEnergy } from '../shared/physics/fast/treecode'
 import { PairKernels, wasmPairSum } from '../shared/physics/fast/wasm'
 import { PairPool } from '../server/engine/pool'
@@ -94,6 +96,9 @@ async function main(): Promise<void> {
     console.log(`  N = ${N}: direct ${tD.toFixed(3)} s, tree code ${tT.toFixed(3)} s (p = ${tc.parameters.order}), ratio ${(tD / tT).toFixed(3)}×, measured error ${fmt(Math.abs(tc.value - direct.value) / direct.value)}, bound ${fmt(tc.errorBound)}`)
   }
 
+  console.log('\n3b. 3-D Coulomb FMM vs direct SIMD (1 thread and worker pool), tolerance 1e−3')
+  await bench3dFmm(pool)
+
   console.log('\n4. NumPy/SciPy peer (pdist), log kernel, d = 2')
   let havePy = true
   try {
@@ -126,4 +131,21 @@ async function main(): Promise<void> {
   benchSamplersAndStatistics()
 }
 
-await main()
+/** The 3-D Coulomb FMM against the SIMD direct sum, times measured in the same run. */
+export async function bench3dFmm(pool: PairPool, sizes = large ? [10000, 100000, 1000000] : [10000, 100000], tolerance = 1e-3): Promise<void> {
+  const kernels = new PairKernels()
+  for (const N of sizes) {
+    const points = uniform(N, 3, 5)
+    const [fmm, tF] = timed(() => fmm3dEnergy(points, { tolerance }))
+    const head = `  N = ${N}: FMM ${tF.toFixed(3)} s (p = ${fmm.order}, θ = ${fmm.parameters.theta}, ${fmm.parameters.cellInteractions} M2L pairs), bound ${fmt(fmm.errorBound)}`
+    if (N > 100000) {
+      console.log(`${head}; no direct reference at this size`)
+      continue
+    }
+    const [d1, t1] = timed(() => wasmPairSum(points, 3, { name: 'coulomb' }, free3, kernels))
+    const [d2, t2] = await timedAsync(() => pool.pairSum(points, 3, { name: 'coulomb' }, free3))
+    console.log(`${head}; direct 1 thread ${t1.toFixed(3)} s (ratio direct/FMM ${(t1 / tF).toFixed(3)}), pool ${t2.toFixed(3)} s (ratio ${(t2 / tF).toFixed(3)}), measured error ${fmt(Math.abs(fmm.value - d1) / d1)} (pool ${fmt(Math.abs(fmm.value - d2.value) / d2.value)})`)
+  }
+}
+
+if (!process.argv.includes('--fmm3d-only')) await main()

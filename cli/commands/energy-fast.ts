@@ -8,7 +8,7 @@ import { UsageError } from '../command'
 import { inputOptions, loadInput, perConfiguration } from '../input'
 import { geometryOptions, numberOption, pointDimension, readKernel, stringOption } from '../setting'
 
-const METHODS: FastMethod[] = ['direct-wasm', 'direct-ts', 'fmm2d', 'treecode']
+const METHODS: FastMethod[] = ['direct-wasm', 'direct-ts', 'fmm2d', 'fmm3d', 'treecode']
 
 export const command: EngineCommand = {
   name: 'energy-fast',

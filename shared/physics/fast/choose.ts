@@ -8,11 +8,12 @@ import { pairSum } from '../energy'
 import { EngineInputError } from '../errors'
 import { ENGINE_VERSION } from '../version'
 import { fmm2dEnergy } from './fmm2d'
+import { fmm3dEnergy } from './fmm3d'
 import { planPairSum } from './plan'
 import { logPairTail, rieszTail, treecodeEnergy } from './treecode'
 import { wasmPairSum, wasmSimdAvailable } from './wasm'
 
-export type FastMethod = 'direct-wasm' | 'direct-ts' | 'fmm2d' | 'treecode'
+export type FastMethod = 'direct-wasm' | 'direct-ts' | 'fmm2d' | 'fmm3d' | 'treecode'
 
 export interface FastEnergyOptions {
   /** Requested relative error (default 1e−10). */
@@ -34,6 +35,16 @@ export interface FastEnergyResult {
 /** Smallest N for which the 2-D log FMM replaces the direct sum (the FMM costs roughly 2.5 µs per
  *  point at 1e−10 against N/2 ns per point for the SIMD direct sum). */
 export const FMM2D_MIN_N = 20000
+/** Smallest N for which the 3-D Coulomb FMM (fmm3d.ts) replaces the direct sum in free space, at
+ *  tolerances ≥ FMM3D_MIN_TOLERANCE. Measured 2026-12-02 on this 2-core machine (shared with other
+ *  work, so contended), uniform points in the unit cube, single-thread SIMD direct sum against the FMM
+ *  at tolerance 1e−3 (p = 11, θ = 0.5; bench/run.ts section 3b): N = 1e4: direct 0.116 s, FMM 4.49 s;
+ *  N = 1e5: direct 10.3 s, FMM 86.6 s. With the direct sum ∝ N² and the FMM ∝ N they cross near
+ *  N ≈ 8·10⁵ (extrapolated; against the 2-thread pool, 5.4 s at 1e5, near 1.6·10⁶). At 1e−6 (p = 16,
+ *  θ = 0.4) the FMM took 67.9 s at N = 2e4 against 0.48 s direct, a crossover near 3·10⁶, so tighter
+ *  tolerances keep the direct sum or the tree code. */
+export const FMM3D_MIN_N = 1000000
+export const FMM3D_MIN_TOLERANCE = 1e-3
 /** Cost model of the tree code against the single-thread SIMD direct sum (measured in bench/run.ts):
  *  about 100 accepted nodes per point at θ = 0.5, each ~15 C(p + 3, 3) flops at ~1e9 flops/s, against
  *  N/2 pairs per point at ~1e9 pairs/s. The tree code wins only when N > 3000 C(p + 3, 3). */
@@ -56,6 +67,7 @@ export function chooseMethod(N: number, d: number, kernel: Kernel, geometry: Geo
   const direct: FastMethod = wasm ? 'direct-wasm' : 'direct-ts'
   const planar = geometry.kind === 'free' && (d === 1 || d === 2)
   if (kernel.name === 'log' && planar && N >= FMM2D_MIN_N && tolerance >= 1e-13) return 'fmm2d'
+  if (kernel.name === 'coulomb' && d === 3 && geometry.kind === 'free' && N >= FMM3D_MIN_N && tolerance >= FMM3D_MIN_TOLERANCE) return 'fmm3d'
   if ((d === 3 || geometry.kind === 'sphere') && treecodeWins(N, kernel, 3, tolerance)) return 'treecode'
   return direct
 }
@@ -71,6 +83,11 @@ export function fastEnergy(points: Float64Array, d: number, kernel: Kernel, geom
     if (plan.kind !== 'log' || geometry.kind !== 'free' || d > 2) throw new EngineInputError('the 2-D FMM sums the log kernel of points on the line or in the plane only')
     const xy = d === 2 ? points : embedLine(points)
     const r = fmm2dEnergy(xy, { tolerance: tol })
+    return { value: r.value, method, errorBound: r.errorBound, parameters: { ...r.parameters }, engineVersion: ENGINE_VERSION }
+  }
+  if (method === 'fmm3d') {
+    if (kernel.name !== 'coulomb' || geometry.kind !== 'free' || d !== 3) throw new EngineInputError('the 3-D FMM sums the Coulomb kernel 1/|x| of points in R³ (free space) only')
+    const r = fmm3dEnergy(points, { tolerance: tol })
     return { value: r.value, method, errorBound: r.errorBound, parameters: { ...r.parameters }, engineVersion: ENGINE_VERSION }
   }
   if (method === 'treecode') {

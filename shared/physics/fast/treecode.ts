@@ -84,7 +84,7 @@ export function logPairTail(theta: number, p: number): number {
   return Math.pow(theta, p + 1) / ((p + 1) * (1 - theta))
 }
 
-interface MultiIndex {
+export interface MultiIndex {
   readonly count: number
   readonly kx: Int32Array
   readonly ky: Int32Array
@@ -99,7 +99,7 @@ interface MultiIndex {
 }
 
 /** All (k_x, k_y, k_z) with k_x + k_y + k_z ≤ P, by increasing degree. */
-function multiIndices(P: number): MultiIndex {
+export function multiIndices(P: number): MultiIndex {
   const list: number[][] = []
   for (let n = 0; n <= P; n++) {
     for (let a = n; a >= 0; a--) {
@@ -133,14 +133,14 @@ function multiIndices(P: number): MultiIndex {
 
 /** Per-index constants of the recurrence: c1 = −(2|k| − 2 + s)/|k|, c2 = −(|k| − 2 + s)/|k| (power), or
  *  c1 = −2(|k| − 1)/|k|, c2 = −(|k| − 2)/|k| (log); flat neighbour indices (0 stands for a zero slot). */
-interface Recurrence {
+export interface Recurrence {
   readonly c1: Float64Array
   readonly c2: Float64Array
   /** 6 indices per k: k − e_x, k − e_y, k − e_z, k − 2e_x, k − 2e_y, k − 2e_z, shifted by one. */
   readonly nb: Int32Array
 }
 
-function recurrence(idx: MultiIndex, log: boolean, s: number): Recurrence {
+export function recurrence(idx: MultiIndex, log: boolean, s: number): Recurrence {
   const n = idx.count
   const c1 = new Float64Array(n)
   const c2 = new Float64Array(n)
@@ -158,7 +158,7 @@ function recurrence(idx: MultiIndex, log: boolean, s: number): Recurrence {
 }
 
 /** Taylor coefficients a_k(X), |k| ≤ P (the first `count` indices), into a[1..]; a[0] is a zero slot. */
-function taylor(rec: Recurrence, count: number, X: number, Y: number, Z: number, log: boolean, s: number, a: Float64Array): void {
+export function taylor(rec: Recurrence, count: number, X: number, Y: number, Z: number, log: boolean, s: number, a: Float64Array): void {
   const R2 = X * X + Y * Y + Z * Z
   const inv = 1 / R2
   const { c1, c2, nb } = rec

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest'
 import { pairSum } from '../../../../shared/physics/energy'
 import { EngineInputError } from '../../../../shared/physics/errors'
-import { FMM2D_MIN_N, chooseMethod, fastEnergy, treecodeWins } from '../../../../shared/physics/fast/choose'
+import { FMM2D_MIN_N, FMM3D_MIN_N, chooseMethod, fastEnergy, treecodeWins } from '../../../../shared/physics/fast/choose'
 import { clustered, relErr, sphere, uniform } from './configurations'
 
 describe('choice of the pair-sum method', () => {
@@ -16,7 +16,12 @@ describe('choice of the pair-sum method', () => {
     // tolerance 1e−2 at θ = 0.5, s = 1: (1.5)·0.5^(p+1)/0.5 ≤ 1e−2 first at p = 8, C(11, 3) = 165 terms
     expect(treecodeWins(3000 * 165 + 1, { name: 'coulomb' }, 3, 1e-2)).toBe(true)
     expect(treecodeWins(3000 * 165, { name: 'coulomb' }, 3, 1e-2)).toBe(false)
-    expect(chooseMethod(1e6, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-2, true)).toBe('treecode')
+    expect(chooseMethod(1e6, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-2, true)).toBe('fmm3d')
+    expect(chooseMethod(FMM3D_MIN_N - 1, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-2, true)).toBe('treecode')
+    expect(chooseMethod(FMM3D_MIN_N, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-4, true)).toBe('direct-wasm')
+    expect(chooseMethod(1e6, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-6, true)).toBe('direct-wasm')
+    expect(chooseMethod(1e6, 3, { name: 'riesz', s: 1 }, { kind: 'sphere' }, 1e-2, true)).toBe('treecode')
+    expect(chooseMethod(1e6, 3, { name: 'riesz', s: 1.5 }, { kind: 'free', d: 3 }, 1e-2, true)).toBe('treecode')
     expect(chooseMethod(1e6, 3, { name: 'riesz', s: 1 }, { kind: 'sphere' }, 1e-10, true)).toBe('direct-wasm')
     for (let k = 0; k < 3; k++) expect(chooseMethod(50000, 2, { name: 'log' }, free2, 1e-8)).toBe(chooseMethod(50000, 2, { name: 'log' }, free2, 1e-8))
   })
@@ -40,6 +45,11 @@ describe('choice of the pair-sum method', () => {
     expect(relErr(r.value, exact)).toBeLessThanOrEqual(1e-9)
     expect(r.errorBound).toBeLessThanOrEqual(1e-9)
     const pts = clustered(800, 3, 4)
+    const fm = fastEnergy(pts, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, { tolerance: 1e-5, method: 'fmm3d' })
+    expect(fm.method).toBe('fmm3d')
+    expect(fm.errorBound).toBeLessThanOrEqual(1e-5)
+    expect(relErr(fm.value, pairSum({ N: 800, d: 3, points: pts }, { name: 'coulomb' }, { kind: 'free', d: 3 }))).toBeLessThanOrEqual(1e-5)
+    expect(() => fastEnergy(pts, 3, { name: 'riesz', s: 1.5 }, { kind: 'free', d: 3 }, { method: 'fmm3d' })).toThrow(EngineInputError)
     const tc = fastEnergy(pts, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, { tolerance: 1e-5, method: 'treecode' })
     expect(relErr(tc.value, pairSum({ N: 800, d: 3, points: pts }, { name: 'coulomb' }, { kind: 'free', d: 3 }))).toBeLessThanOrEqual(1e-5)
     expect(tc.engineVersion).toMatch(/\d/)
