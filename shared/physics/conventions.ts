@@ -1,8 +1,8 @@
 // Energy conventions. Published papers write the energy of N points with a pair sum counted once
 // (½Σ_{i≠j} = Σ_{i<j}) or twice (Σ_{i≠j}), a field term Σ V(x_i) scaled by 1, N/2 or N, a logarithmic
 // kernel written as −log|x| or with the opposite overall sign, and a Gibbs weight e^{−βH}, e^{−βH/2}
-// or e^{−βN^{2/d−1}H/2}. The engine's canonical record (MATH.md §2; Serfaty, Coulomb Gases and
-// Ginzburg–Landau Vortices, EMS 2015, ch. 2; Forrester, Log-gases and Random Matrices, 2010, §1.4) is
+// or e^{−βN^{2/d−1}H/2}. The engine's canonical record (MATH.md §2; Forrester, Log-gases and Random
+// Matrices, 2010, §1.4) is
 //
 //   H = Σ_{i≠j} g(x_i − x_j) + N Σ_i V(x_i),   g = −log|x| for log kernels,   weight e^{−βH/2}.
 //

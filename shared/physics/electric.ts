@@ -10,8 +10,7 @@
 //   ⟨h^μ⟩_{∂B(x,η)} = ∫ −log max(|x − t|, η) dμ(t),  so  h^μ(x) − ⟨h^μ⟩ = ∫_{|t−x|<η} log(η/|x − t|) dμ(t),
 // a one-dimensional integral over the line density done by adaptive Gauss–Kronrod quadrature
 // (relative tolerance 1e-13). Smeared pair energies: smeared.ts. Sources: Sandier & Serfaty,
-// Ann. Probab. 43 (2015); Petrache & Serfaty, J. Inst. Math. Jussieu 16 (2017); Serfaty,
-// Coulomb Gases and Ginzburg–Landau Vortices (EMS Publishing House, 2015)
+// Ann. Probab. 43 (2015); Petrache & Serfaty, J. Inst. Math. Jussieu 16 (2017)
 // (truncation, the choice η_i = min(¼ r_i, N^(−1/d))).
 import { EngineInputError } from './errors'
 import { ENGINE_VERSION } from './version'

@@ -6,7 +6,7 @@
 //   log kernels: (F_N + (N/d) log N)/N (d = 1 on the line, 2 in the plane and on S²);
 //   Coulomb and Riesz |x|^(−s), s < d: F_N / N^(1+s/d) (= N^(2−2/d) for Coulomb, s = d − 2).
 // Sources: Sandier & Serfaty, "1D log gases and the renormalized energy", Ann. Probab. 43 (2015);
-// Serfaty, Coulomb Gases and Ginzburg–Landau Vortices (EMS 2015), ch. 3; Petrache & Serfaty,
+// Petrache & Serfaty,
 // "Next order asymptotics and renormalized energy for Riesz interactions", J. Inst. Math. Jussieu 16 (2017).
 import type { Configuration, Geometry, Kernel } from './types'
 import type { Potential } from './potentials/types'

@@ -1,5 +1,5 @@
 // The splitting identity H_N = N² I_V + 2N Σ ζ(x_i) + F_N(X_N, μ_V) (MATH.md §4; Sandier & Serfaty,
-// Ann. Probab. 43 (2015); Serfaty, Coulomb Gases and Ginzburg–Landau Vortices (2015), ch. 3) on seeded
+// Ann. Probab. 43 (2015)) on seeded
 // random configurations, with points inside and outside the support, and F_N against its definition.
 import { describe, it, expect } from 'vitest'
 import { nextOrderEnergy } from '../../shared/physics/nextorder'

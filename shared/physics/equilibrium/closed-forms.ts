@@ -311,7 +311,7 @@ export function uniformBallMeasure(a: number, kernel: Kernel = { name: 'coulomb'
     d: 3,
     kernel,
     support: { kind: 'ball', center: [0, 0, 0], radius: R },
-    source: 'uniform ball, μ = ΔV/(2c₃) (Newton\'s theorem): Landkof, Foundations of Modern Potential Theory (1972), ch. I; Serfaty, Coulomb Gases and Ginzburg–Landau Vortices (2015), ch. 2',
+    source: 'uniform ball, μ = ΔV/(2c₃) (Newton\'s theorem): Landkof, Foundations of Modern Potential Theory (1972), ch. I',
     accuracy: 0,
     selfEnergy: 6 / (5 * R),
     IV: 9 / (5 * R),
