@@ -23,6 +23,13 @@ let badI: i32 = -1
 let badJ: i32 = -1
 let accS: f64 = 0
 let accC: f64 = 0
+// running products of the fast log path, carried from one group of rows to the next and flushed
+// (one logarithm per lane) only when they leave [1e−150, 1e150] or at the end of a call
+let gp0: v128 = f64x2.splat(1)
+let gp1: v128 = f64x2.splat(1)
+let gp2: v128 = f64x2.splat(1)
+let gp3: v128 = f64x2.splat(1)
+let gTail: f64 = 1
 
 /** First free byte after the module's static data. */
 export function heapBase(): usize {
@@ -138,10 +145,10 @@ function logFourRows(px: usize, py: usize, pz: usize, n: i32, i: i32, j0: i32, t
   const z1 = f64x2.splat(ld(pz, i + 1))
   const z2 = f64x2.splat(ld(pz, i + 2))
   const z3 = f64x2.splat(ld(pz, i + 3))
-  let p0 = one
-  let p1 = one
-  let p2 = one
-  let p3 = one
+  let p0 = gp0
+  let p1 = gp1
+  let p2 = gp2
+  let p3 = gp3
   let mn = f64x2.splat(Infinity)
   let j = j0
   for (; j + 3 < n; j += 4) {
@@ -182,19 +189,44 @@ function logFourRows(px: usize, py: usize, pz: usize, n: i32, i: i32, j0: i32, t
     }
   }
   if (Math.min(f64x2.extract_lane(mn, 0), f64x2.extract_lane(mn, 1)) < SAFE_LOW) return false
-  flushLanes(p0)
-  flushLanes(p1)
-  flushLanes(p2)
-  flushLanes(p3)
-  // the last columns when n − j0 is not a multiple of 4
+  // the last columns when n − j0 is not a multiple of 4, into the scalar running product
+  let tail = gTail
   for (; j < n; j++) {
     for (let r = 0; r < 4; r++) {
       const q = r2At(px, py, pz, i + r, j)
       if (q < SAFE_LOW) return false
-      accAdd(Math.log(q))
+      tail *= q
+      if (tail < LOW || tail > HIGH) {
+        accAdd(Math.log(tail))
+        tail = 1
+      }
     }
   }
+  gp0 = p0
+  gp1 = p1
+  gp2 = p2
+  gp3 = p3
+  gTail = tail
   return true
+}
+
+function productsReset(): void {
+  const one = f64x2.splat(1)
+  gp0 = one
+  gp1 = one
+  gp2 = one
+  gp3 = one
+  gTail = 1
+}
+
+/** Adds the logarithms of the carried products to the accumulator and resets them. */
+function productsFlush(): void {
+  flushLanes(gp0)
+  flushLanes(gp1)
+  flushLanes(gp2)
+  flushLanes(gp3)
+  if (gTail != 1) accAdd(Math.log(gTail))
+  productsReset()
 }
 
 /** The largest coordinate size, to decide whether the fast path is safe. */
@@ -212,6 +244,7 @@ function logRows(px: usize, py: usize, pz: usize, n: i32, i0: i32, i1: i32, thre
   let total: f64 = 0
   let totalC: f64 = 0
   const fast = maxAbs(px, py, pz, n) < SAFE_COORD
+  productsReset()
   let i = i0
   for (; i + 4 <= i1; i += 4) {
     accReset()
@@ -224,9 +257,19 @@ function logRows(px: usize, py: usize, pz: usize, n: i32, i0: i32, i1: i32, thre
       else {
         const s = accS
         const c = accC
+        const q0 = gp0
+        const q1 = gp1
+        const q2 = gp2
+        const q3 = gp3
+        const qt = gTail
         if (!logFourRows(px, py, pz, n, i, i + 4, threeD)) {
           accS = s
           accC = c
+          gp0 = q0
+          gp1 = q1
+          gp2 = q2
+          gp3 = q3
+          gTail = qt
           ok = logRowsCareful4(px, py, pz, n, i)
         }
       }
@@ -238,9 +281,12 @@ function logRows(px: usize, py: usize, pz: usize, n: i32, i0: i32, i1: i32, thre
     total = t
     totalC += accC
   }
+  accReset()
+  productsFlush()
   if (i < i1) {
-    accReset()
     if (!logRowsCareful(px, py, pz, n, i, i1)) return NaN
+  }
+  {
     const t = total + accS
     if (Math.abs(total) >= Math.abs(accS)) totalC += (total - t) + accS
     else totalC += (accS - t) + total
@@ -552,67 +598,87 @@ export function fieldCoulomb3(px: usize, py: usize, pz: usize, n: i32, i0: i32, 
 
 // ---------------------------------------------------------------- rectangular blocks
 
-/** Σ_{a0 ≤ i < a1} Σ_{b0 ≤ j < b1, j > i when the ranges are equal} log|x_i − x_j|² in the plane
- *  (the near field of a tree method; the ranges are equal or disjoint; coordinates below 1e34). */
-export function blockLog2(px: usize, py: usize, a0: i32, a1: i32, b0: i32, b1: i32): f64 {
-  badI = -1
-  badJ = -1
-  accReset()
-  const same = a0 == b0
-  const lo = f64x2.splat(LOW)
-  const hi = f64x2.splat(HIGH)
-  const one = f64x2.splat(1)
-  for (let i = a0; i < a1; i++) {
-    const xi = ld(px, i)
-    const yi = ld(py, i)
-    const vx = f64x2.splat(xi)
-    const vy = f64x2.splat(yi)
-    let prod = one
-    let mn = f64x2.splat(Infinity)
-    const js = same ? i + 1 : b0
-    let j = js
-    const s0 = accS
-    const c0 = accC
-    for (; j + 1 < b1; j += 2) {
-      const a = f64x2.sub(vx, vld(px, j))
-      const b = f64x2.sub(vy, vld(py, j))
-      const r2 = f64x2.add(f64x2.mul(a, a), f64x2.mul(b, b))
-      mn = f64x2.pmin(mn, r2)
-      prod = f64x2.mul(prod, r2)
-      if (v128.any_true(outOfRange(prod, lo, hi))) {
-        flushLanes(prod)
-        prod = one
-      }
+/** Row r against the columns [j0, j1), scalar careful path (products as in logRowsCareful). */
+function logRowCareful(px: usize, py: usize, pz: usize, r: i32, j0: i32, j1: i32): bool {
+  let prod: f64 = 1
+  for (let j = j0; j < j1; j++) {
+    const r2 = r2At(px, py, pz, r, j)
+    if (r2 == 0) {
+      flag(r, j)
+      return false
     }
-    flushLanes(prod)
-    for (; j < b1; j++) {
-      const dx = xi - ld(px, j)
-      const dy = yi - ld(py, j)
-      const r2 = dx * dx + dy * dy
-      mn = f64x2.pmin(mn, f64x2.splat(r2))
-      if (r2 >= SAFE_LOW) accAdd(Math.log(r2))
+    if (r2 < LOW || r2 > HIGH) {
+      accAdd(Math.log(r2))
+      continue
     }
-    if (Math.min(f64x2.extract_lane(mn, 0), f64x2.extract_lane(mn, 1)) < SAFE_LOW) {
-      accS = s0
-      accC = c0
-      let p: f64 = 1
-      for (let k = js; k < b1; k++) {
-        const dx = xi - ld(px, k)
-        const dy = yi - ld(py, k)
-        const r2 = dx * dx + dy * dy
-        if (r2 < LOW || r2 > HIGH) {
-          if (r2 == 0) return flag(i, k)
-          accAdd(Math.log(r2))
-          continue
-        }
-        p *= r2
-        if (p < LOW || p > HIGH) {
-          accAdd(Math.log(p))
-          p = 1
-        }
-      }
-      if (p != 1) accAdd(Math.log(p))
+    prod *= r2
+    if (prod < LOW || prod > HIGH) {
+      accAdd(Math.log(prod))
+      prod = 1
     }
   }
-  return accS + accC
+  if (prod != 1) accAdd(Math.log(prod))
+  return true
+}
+
+/** Σ_{a0 ≤ i < a1} Σ_{b0 ≤ j < b1, j > i when the ranges are equal} log|x_i − x_j|² (the near field of
+ *  a tree method; the ranges are equal or disjoint; coordinates below 1e34; pz holds zeros in the
+ *  plane). Four rows at a time against the columns with four independent product chains
+ *  (logFourRows), the careful scalar path for a group whose smallest r² is below 1e−70, and the
+ *  rows left over one by one. */
+export function blockLog2(px: usize, py: usize, pz: usize, a0: i32, a1: i32, b0: i32, b1: i32): f64 {
+  badI = -1
+  badJ = -1
+  const same = a0 == b0
+  let total: f64 = 0
+  let totalC: f64 = 0
+  productsReset()
+  let i = a0
+  for (; i + 4 <= a1; i += 4) {
+    accReset()
+    let ok = true
+    let j0 = b0
+    if (same) {
+      ok = logRowsCarefulRange(px, py, pz, i, i + 4)
+      j0 = i + 4
+    }
+    if (ok && j0 < b1) {
+      const s = accS
+      const c = accC
+      const q0 = gp0
+      const q1 = gp1
+      const q2 = gp2
+      const q3 = gp3
+      const qt = gTail
+      if (!logFourRows(px, py, pz, b1, i, j0, false)) {
+        accS = s
+        accC = c
+        gp0 = q0
+        gp1 = q1
+        gp2 = q2
+        gp3 = q3
+        gTail = qt
+        for (let r = i; ok && r < i + 4; r++) ok = logRowCareful(px, py, pz, r, j0, b1)
+      }
+    }
+    if (!ok) return NaN
+    const t = total + accS
+    if (Math.abs(total) >= Math.abs(accS)) totalC += (total - t) + accS
+    else totalC += (accS - t) + total
+    total = t
+    totalC += accC
+  }
+  accReset()
+  productsFlush()
+  for (let r = i; r < a1; r++) {
+    if (!logRowCareful(px, py, pz, r, same ? r + 1 : b0, b1)) return NaN
+  }
+  {
+    const t = total + accS
+    if (Math.abs(total) >= Math.abs(accS)) totalC += (total - t) + accS
+    else totalC += (accS - t) + total
+    total = t
+    totalC += accC
+  }
+  return total + totalC
 }

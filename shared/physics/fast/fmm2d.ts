@@ -11,10 +11,12 @@
 // centres and distance D = |c_A − c_B|, the p-term M2L gives every point pair an error at most
 //   ε(θ, p) = Σ_{n>p} θ^n / n ≤ θ^{p+1} / ((p + 1)(1 − θ)),   θ = (r_A + r_B)/D,
 // i.e. (1/((p + 1)(c − 1)))·c^(−p) with separation ratio c = 1/θ, the Greengard–Rokhlin form.
-// The energy error is at most B(p) = Σ_{far pairs} n_A n_B θ_AB^(p+1)/((p + 1)(1 − θ_AB)) (≥ the sum of
-// the ε), computed for the actual tree;
-// p is the smallest order with B(p) ≤ tolerance·L, L a lower bound of |E| from the exact near field and
-// the monopole far field. Forces: per point pair the error is at most (1/D) Σ_{n>p} θ^(n−1), so
+// Energies need no local expansions: the energy of a far pair of nodes is the series of log(z₀ + s),
+// s = w_i − w_j, truncated at total degree q in the two nodes' moments (farPairLog), with the same
+// per-pair bound ε(θ, q). Each far pair gets its own order q_AB, the smallest with
+// n_A n_B θ^(q+1)/((q + 1)(1 − θ)) ≤ n_A n_B·τ, τ = tolerance·L/(2 Σ n_A n_B), L a lower bound of |E|
+// (the exact near field and every far pair at order 4, less that order's bound); the reported bound
+// is Σ n_A n_B θ^(q+1)/((q + 1)(1 − θ)) over the orders used. Forces: per point pair the error is at most (1/D) Σ_{n>p} θ^(n−1), so
 // relative to Σ_j 1/|x_i − x_j| it is at most (1 + θ) θ^p / (1 − θ).
 import { EngineInputError } from '../errors'
 import { CompensatedSum } from '../summation'
@@ -35,7 +37,10 @@ export interface FmmOptions {
 }
 
 export interface FmmParameters {
+  /** The largest expansion order used. */
   readonly order: number
+  /** The mean order over the far pairs of nodes expanded (energies: each pair has its own). */
+  readonly meanOrder?: number
   readonly leafSize: number
   readonly theta: number
   readonly nodes: number
@@ -243,6 +248,76 @@ function upwardPass(tree: PointTree, p: number, C: Float64Array[]): { re: Float6
   return { re, im }
 }
 
+/** Node moments σ_X[k] = Σ_{j∈X} ((z_j − c_X)/R_X)^k, k = 0..p (σ[0] = n_X), p + 1 slots per node:
+ *  at the leaves from the points, above by the binomial shift
+ *  σ_P[n] = Σ_{k≤n} C(n, k) ρ^k σ_c[k] t^(n−k), t = (c_c − c_P)/R_P, ρ = R_c/R_P. */
+function momentPass(tree: PointTree, p: number, C: Float64Array[]): { sr: Float64Array, si: Float64Array } {
+  const M = tree.start.length
+  const sr = new Float64Array(M * (p + 1))
+  const si = new Float64Array(M * (p + 1))
+  const P = tree.sorted
+  const tp = new Float64Array(2 * (p + 1))
+  const cr = new Float64Array(p + 1)
+  const ci = new Float64Array(p + 1)
+  for (let node = M - 1; node >= 0; node--) {
+    const o = node * (p + 1)
+    const cx = tree.centre[2 * node]
+    const cy = tree.centre[2 * node + 1]
+    const inv = 1 / tree.half[node]
+    sr[o] = tree.end[node] - tree.start[node]
+    const ch = tree.children[node]
+    if (ch.length === 0) {
+      for (let j = tree.start[node]; j < tree.end[node]; j++) {
+        const wx = (P[2 * j] - cx) * inv
+        const wy = (P[2 * j + 1] - cy) * inv
+        let tr = 1
+        let ti = 0
+        for (let k = 1; k <= p; k++) {
+          const nr = tr * wx - ti * wy
+          ti = tr * wy + ti * wx
+          tr = nr
+          sr[o + k] += tr
+          si[o + k] += ti
+        }
+      }
+      continue
+    }
+    for (const c of ch) {
+      const oc = c * (p + 1)
+      const tx = (tree.centre[2 * c] - cx) * inv
+      const ty = (tree.centre[2 * c + 1] - cy) * inv
+      const rho = tree.half[c] * inv
+      tp[0] = 1
+      tp[1] = 0
+      for (let l = 1; l <= p; l++) {
+        tp[2 * l] = tp[2 * l - 2] * tx - tp[2 * l - 1] * ty
+        tp[2 * l + 1] = tp[2 * l - 2] * ty + tp[2 * l - 1] * tx
+      }
+      let rk = 1
+      for (let k = 0; k <= p; k++) {
+        cr[k] = sr[oc + k] * rk
+        ci[k] = si[oc + k] * rk
+        rk *= rho
+      }
+      for (let n = 1; n <= p; n++) {
+        const Cn = C[n]
+        let ar = 0
+        let ai = 0
+        for (let k = 0; k <= n; k++) {
+          const b = Cn[k]
+          const xr = tp[2 * (n - k)]
+          const xi = tp[2 * (n - k) + 1]
+          ar += b * (cr[k] * xr - ci[k] * xi)
+          ai += b * (cr[k] * xi + ci[k] * xr)
+        }
+        sr[o + n] += ar
+        si[o + n] += ai
+      }
+    }
+  }
+  return { sr, si }
+}
+
 /** M2L from node a into node b: adds b̃_l (l = 0..p) to the local arrays at offset ob. */
 function m2l(tree: PointTree, p: number, T: Float64Array, mre: Float64Array, mim: Float64Array, a: number, b: number, out: Float64Array, scratch: Float64Array): void {
   const oa = a * (p + 1)
@@ -317,101 +392,148 @@ function prepare(points: Float64Array, options: FmmOptions): Prepared & { tol: n
   return { tree, lists, leaf, theta, tol }
 }
 
-/** B(p) = Σ_{far pairs} n_A n_B θ^(p+1)/((p + 1)(1 − θ)) ≥ Σ n_A n_B ε(θ_AB, p), for p = 1..maxOrder;
- *  B(0) = Σ n_A n_B (−log(1 − θ)) exactly. */
-function truncationBounds(tree: PointTree, lists: InteractionLists, maxOrder: number): Float64Array {
-  const out = new Float64Array(maxOrder + 1)
-  const F = lists.farA.length
-  const w = new Float64Array(F)
-  const t = new Float64Array(F)
-  for (let q = 0; q < F; q++) {
-    const a = lists.farA[q]
-    const b = lists.farB[q]
-    const th = lists.farRatio[q]
-    w[q] = ((tree.end[a] - tree.start[a]) * (tree.end[b] - tree.start[b])) / (1 - th)
-    t[q] = th
-  }
-  const exact0 = new CompensatedSum()
-  for (let q = 0; q < F; q++) exact0.add(-w[q] * (1 - t[q]) * Math.log1p(-t[q]))
-  for (let p = 0; p <= maxOrder; p++) {
-    const acc = new CompensatedSum()
-    for (let q = 0; q < F; q++) {
-      acc.add(w[q] * t[q])
-      t[q] *= lists.farRatio[q]
+/** W[k(p + 1) + m] = (−1)^(k+m+1) C(k + m, k)/(k + m) for 1 ≤ k + m ≤ p: the coefficients of the
+ *  far-pair energy in the moments of the two nodes (see farPairLog). */
+function energyTable(p: number, C: Float64Array[]): Float64Array {
+  const W = new Float64Array((p + 1) * (p + 1))
+  for (let k = 0; k <= p; k++) {
+    for (let m = 0; k + m <= p; m++) {
+      const n = k + m
+      if (n === 0) continue
+      W[k * (p + 1) + m] = ((n % 2 === 1 ? 1 : -1) * C[n][k]) / n
     }
-    out[p] = acc.value / (p + 1)
   }
-  // p = 0: the exact Σ_{n≥1} θ^n/n = −log(1 − θ)
-  out[0] = exact0.value
-  return out
+  return W
 }
 
-/** The energy Σ_{i<j} −log|x_i − x_j| of points in the plane (flat x0, y0, x1, y1, …). */
+/** Σ_{i∈b, j∈a} log(z_i − z_j) (real part), truncated at total degree q in s = w_i − w_j:
+ *  log(z₀ + s) = log z₀ + Σ_{n=1}^{q} (−1)^(n+1) (s/z₀)^n / n, z₀ = c_b − c_a, and
+ *  (s/z₀)^n = Σ_k C(n, k) (w_i/z₀)^k (−w_j/z₀)^(n−k), so with the node moments σ_X[k] = Σ (w/R_X)^k
+ *  the pair of nodes costs (q + 1)(q + 2)/2 real products of β_k = σ_b[k](R_b/z₀)^k and
+ *  α_m = σ_a[m](−R_a/z₀)^m. Every point pair has |s/z₀| ≤ (r_a + r_b)/D = θ, so the truncation error
+ *  is at most n_a n_b Σ_{n>q} θ^n/n (Greengard & Rokhlin 1987, Lemma 2.1, for the total degree). */
+function farPairLog(tree: PointTree, p: number, q: number, W: Float64Array, sr: Float64Array, si: Float64Array, a: number, b: number, br: Float64Array, bi: Float64Array, ar: Float64Array, ai: Float64Array): number {
+  const zx = tree.centre[2 * b] - tree.centre[2 * a]
+  const zy = tree.centre[2 * b + 1] - tree.centre[2 * a + 1]
+  const z2 = zx * zx + zy * zy
+  // t_b = R_b/z₀ and t_a = −R_a/z₀ (1/z₀ = conj(z₀)/|z₀|²)
+  const tbr = (tree.half[b] * zx) / z2
+  const tbi = (-tree.half[b] * zy) / z2
+  const tar = (-tree.half[a] * zx) / z2
+  const tai = (tree.half[a] * zy) / z2
+  const oa = a * (p + 1)
+  const ob = b * (p + 1)
+  let ur = 1
+  let ui = 0
+  let vr = 1
+  let vi = 0
+  for (let k = 0; k <= q; k++) {
+    br[k] = sr[ob + k] * ur - si[ob + k] * ui
+    bi[k] = sr[ob + k] * ui + si[ob + k] * ur
+    ar[k] = sr[oa + k] * vr - si[oa + k] * vi
+    ai[k] = sr[oa + k] * vi + si[oa + k] * vr
+    const nur = ur * tbr - ui * tbi
+    ui = ur * tbi + ui * tbr
+    ur = nur
+    const nvr = vr * tar - vi * tai
+    vi = vr * tai + vi * tar
+    vr = nvr
+  }
+  let e = 0.5 * Math.log(z2) * sr[oa] * sr[ob]
+  for (let k = 0; k <= q; k++) {
+    const row = k * (p + 1)
+    let gr = 0
+    let gi = 0
+    for (let m = k === 0 ? 1 : 0; k + m <= q; m++) {
+      const w = W[row + m]
+      gr += w * ar[m]
+      gi += w * ai[m]
+    }
+    e += br[k] * gr - bi[k] * gi
+  }
+  return e
+}
+
+/** The smallest q ≥ 1 with θ^(q+1)/((q + 1)(1 − θ)) ≤ tau (≥ Σ_{n>q} θ^n/n), at most maxOrder. */
+function orderFor(theta: number, tau: number, maxOrder: number): number {
+  let t = (theta * theta) / (1 - theta)
+  for (let q = 1; q < maxOrder; q++) {
+    if (t / (q + 1) <= tau) return q
+    t *= theta
+  }
+  return maxOrder
+}
+
+/** The energy Σ_{i<j} −log|x_i − x_j| of points in the plane (flat x0, y0, x1, y1, …). Every far
+ *  pair of nodes gets its own order q_AB, the smallest whose bound n_A n_B θ^(q+1)/((q + 1)(1 − θ))
+ *  is at most its share (by weight n_A n_B) of half the requested absolute error; the reported bound
+ *  is the sum of these bounds for the orders used. */
 export function fmm2dEnergy(points: Float64Array, options: FmmOptions = {}): FmmEnergyResult {
   const { tree, lists, leaf, theta, tol } = prepare(points, options)
   const kernels = nearKernels(tree)
   const near = -0.5 * nearLogSum(tree, lists.nearA, lists.nearB, kernels)
-  const bounds = truncationBounds(tree, lists, MAX_ORDER)
-  let p = options.order ?? 0
-  if (p === 0) {
-    // lower bound of |E| from the exact near field and the monopole far field
-    const mono = new CompensatedSum().add(near)
-    for (let q = 0; q < lists.farA.length; q++) {
-      const a = lists.farA[q]
-      const b = lists.farB[q]
-      const dx = tree.centre[2 * a] - tree.centre[2 * b]
-      const dy = tree.centre[2 * a + 1] - tree.centre[2 * b + 1]
-      mono.add(-0.5 * (tree.end[a] - tree.start[a]) * (tree.end[b] - tree.start[b]) * Math.log(dx * dx + dy * dy))
-    }
-    const L = Math.abs(mono.value) - bounds[0]
-    p = MAX_ORDER
-    if (L > 0) {
-      for (let k = 1; k <= MAX_ORDER; k++) {
-        if (bounds[k] <= 0.5 * tol * L) {
-          p = k
-          break
-        }
-      }
-    }
-  }
-  // far pairs with few points (n_A n_B ≤ p²) are summed directly: exact and cheaper than an M2L
-  const dA: number[] = []
-  const dB: number[] = []
-  const mA: number[] = []
-  const mB: number[] = []
-  const absAcc = new CompensatedSum()
-  for (let q = 0; q < lists.farA.length; q++) {
+  const F = lists.farA.length
+  const weight = new Float64Array(F)
+  let totalWeight = 0
+  for (let q = 0; q < F; q++) {
     const a = lists.farA[q]
     const b = lists.farB[q]
-    const w = (tree.end[a] - tree.start[a]) * (tree.end[b] - tree.start[b])
-    if (w <= p * p) {
-      dA.push(a)
-      dB.push(b)
-    }
-    else {
-      mA.push(a)
-      mB.push(b)
+    weight[q] = (tree.end[a] - tree.start[a]) * (tree.end[b] - tree.start[b])
+    totalWeight += weight[q]
+  }
+  const orders = new Int32Array(F)
+  if (options.order !== undefined) {
+    orders.fill(options.order)
+  }
+  else {
+    // lower bound of |E|: the exact near field and every far pair at order 4, less its bound
+    const q0 = 4
+    const C0 = binomials(q0)
+    const W0 = energyTable(q0, C0)
+    const m0 = momentPass(tree, q0, C0)
+    const scratch0 = [0, 1, 2, 3].map(() => new Float64Array(q0 + 1))
+    const low = new CompensatedSum().add(near)
+    const lowError = new CompensatedSum()
+    for (let q = 0; q < F; q++) {
+      low.add(-farPairLog(tree, q0, q0, W0, m0.sr, m0.si, lists.farA[q], lists.farB[q], scratch0[0], scratch0[1], scratch0[2], scratch0[3]))
       const th = lists.farRatio[q]
-      absAcc.add((w * Math.pow(th, p + 1)) / ((p + 1) * (1 - th)))
+      lowError.add((weight[q] * Math.pow(th, q0 + 1)) / ((q0 + 1) * (1 - th)))
     }
+    const L = Math.abs(low.value) - lowError.value
+    const tau = L > 0 ? (0.5 * tol * L) / totalWeight : 0
+    for (let q = 0; q < F; q++) orders[q] = tau > 0 ? orderFor(lists.farRatio[q], tau, MAX_ORDER) : MAX_ORDER
+  }
+  // far pairs with few points (n_A n_B ≤ q²) are summed directly: exact and cheaper than the expansion
+  const dA: number[] = []
+  const dB: number[] = []
+  const mPairs: number[] = []
+  let p = 1
+  const absAcc = new CompensatedSum()
+  for (let q = 0; q < F; q++) {
+    const o = orders[q]
+    if (weight[q] <= o * o) {
+      dA.push(lists.farA[q])
+      dB.push(lists.farB[q])
+      continue
+    }
+    mPairs.push(q)
+    if (o > p) p = o
+    const th = lists.farRatio[q]
+    absAcc.add((weight[q] * Math.pow(th, o + 1)) / ((o + 1) * (1 - th)))
   }
   const direct = -0.5 * nearLogSum(tree, dA, dB, kernels)
   const C = binomials(p)
-  const T = m2lTable(p, C)
-  const { re, im } = upwardPass(tree, p, C)
-  const out = new Float64Array(2 * (p + 1))
-  const scratch = new Float64Array(2 * (p + 1))
+  const W = energyTable(p, C)
+  const { sr, si } = momentPass(tree, p, C)
+  const br = new Float64Array(p + 1)
+  const bi = new Float64Array(p + 1)
+  const ar = new Float64Array(p + 1)
+  const ai = new Float64Array(p + 1)
   const far = new CompensatedSum()
-  for (let q = 0; q < mA.length; q++) {
-    const a = mA[q]
-    const b = mB[q]
-    out.fill(0)
-    m2l(tree, p, T, re, im, a, b, out, scratch)
-    // Σ_{i∈b} Φ_a(z_i) = Σ_l b̃_l S_l with S_0 = n_b, S_l = −l ã_l(b)
-    const ob = b * (p + 1)
-    let e = out[0] * re[ob]
-    for (let l = 1; l <= p; l++) e -= l * (out[2 * l] * re[ob + l] - out[2 * l + 1] * im[ob + l])
-    far.add(-e)
+  let orderSum = 0
+  for (const q of mPairs) {
+    far.add(-farPairLog(tree, p, orders[q], W, sr, si, lists.farA[q], lists.farB[q], br, bi, ar, ai))
+    orderSum += orders[q]
   }
   const value = far.add(near).add(direct).value
   const abs = absAcc.value
@@ -419,7 +541,7 @@ export function fmm2dEnergy(points: Float64Array, options: FmmOptions = {}): Fmm
     value,
     absoluteErrorBound: abs,
     errorBound: value === 0 ? Infinity : abs / Math.abs(value),
-    parameters: { order: p, leafSize: leaf, theta, nodes: tree.start.length, farPairs: mA.length, nearPairs: lists.nearA.length + dA.length },
+    parameters: { order: p, meanOrder: mPairs.length ? orderSum / mPairs.length : 0, leafSize: leaf, theta, nodes: tree.start.length, farPairs: mPairs.length, nearPairs: lists.nearA.length + dA.length },
     engineVersion: ENGINE_VERSION,
   }
 }

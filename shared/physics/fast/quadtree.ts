@@ -45,8 +45,12 @@ export function buildTree(points: Float64Array, d: number, leafSize: number): Po
     h = Math.max(h, N > 0 ? (hi[k] - lo[k]) / 2 : 0)
   }
   h = h > 0 ? h * (1 + 1e-12) : 1
-  const tree: PointTree = { d, sorted: new Float64Array(N * d), perm, start: [], end: [], centre: [], half: [], radius: [], children: [], parent: [] }
+  // the coordinates are kept in tree order as the points are split (contiguous reads per node)
+  const xs = Float64Array.from(points)
+  const tree: PointTree = { d, sorted: xs, perm, start: [], end: [], centre: [], half: [], radius: [], children: [], parent: [] }
   const scratch = new Int32Array(N)
+  const scratchX = new Float64Array(N * d)
+  const codes = new Uint8Array(N)
   const nodeOf = (s: number, e: number, c: number[], half: number, parent: number): number => {
     const id = tree.start.length
     tree.start.push(s)
@@ -56,13 +60,13 @@ export function buildTree(points: Float64Array, d: number, leafSize: number): Po
     tree.children.push([])
     tree.parent.push(parent)
     let r2 = 0
-    for (let m = s; m < e; m++) {
+    for (let m = s * d; m < e * d; m += d) {
       let q = 0
       for (let k = 0; k < d; k++) {
-        const t = points[perm[m] * d + k] - c[k]
+        const t = xs[m + k] - c[k]
         q += t * t
       }
-      r2 = Math.max(r2, q)
+      if (q > r2) r2 = q
     }
     tree.radius.push(Math.sqrt(r2))
     return id
@@ -74,20 +78,24 @@ export function buildTree(points: Float64Array, d: number, leafSize: number): Po
     const c = tree.centre.slice(id * d, id * d + d)
     const nc = 1 << d
     const counts = new Int32Array(nc)
-    const codes = new Int32Array(e - s)
     for (let m = s; m < e; m++) {
       let code = 0
       for (let k = 0; k < d; k++) {
-        if (points[perm[m] * d + k] >= c[k]) code |= 1 << k
+        if (xs[m * d + k] >= c[k]) code |= 1 << k
       }
-      codes[m - s] = code
+      codes[m] = code
       counts[code]++
     }
     const offs = new Int32Array(nc + 1)
     for (let q = 0; q < nc; q++) offs[q + 1] = offs[q] + counts[q]
     const fill = offs.slice(0, nc)
-    for (let m = s; m < e; m++) scratch[s + fill[codes[m - s]]++] = perm[m]
-    for (let m = s; m < e; m++) perm[m] = scratch[m]
+    for (let m = s; m < e; m++) {
+      const to = s + fill[codes[m]]++
+      scratch[to] = perm[m]
+      for (let k = 0; k < d; k++) scratchX[to * d + k] = xs[m * d + k]
+    }
+    perm.set(scratch.subarray(s, e), s)
+    xs.set(scratchX.subarray(s * d, e * d), s * d)
     const hh = tree.half[id] / 2
     for (let q = 0; q < nc; q++) {
       if (counts[q] === 0) continue
@@ -100,9 +108,6 @@ export function buildTree(points: Float64Array, d: number, leafSize: number): Po
   }
   nodeOf(0, N, c0, h, -1)
   split(0, 0)
-  for (let m = 0; m < N; m++) {
-    for (let k = 0; k < d; k++) tree.sorted[m * d + k] = points[perm[m] * d + k]
-  }
   return tree
 }
 

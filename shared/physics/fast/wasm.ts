@@ -18,7 +18,7 @@ interface PairExports {
   energyLog3: (px: number, py: number, pz: number, n: number, i0: number, i1: number) => number
   energyPower: (px: number, py: number, pz: number, n: number, i0: number, i1: number, mode: number, s: number) => number
   fieldLog2: (px: number, py: number, n: number, i0: number, i1: number, phi: number, fx: number, fy: number) => number
-  blockLog2: (px: number, py: number, a0: number, a1: number, b0: number, b1: number) => number
+  blockLog2: (px: number, py: number, pz: number, a0: number, a1: number, b0: number, b1: number) => number
   fieldCoulomb3: (px: number, py: number, pz: number, n: number, i0: number, i1: number, phi: number, fx: number, fy: number, fz: number) => number
 }
 
@@ -104,7 +104,7 @@ export class PairKernels {
    *  loaded points in the plane with coordinates below 1e34; NaN when two points coincide (see
    *  `coincidence`). */
   blockLog2(a0: number, a1: number, b0: number, b1: number): number {
-    return this.x.blockLog2(this.px, this.py, a0, a1, b0, b1)
+    return this.x.blockLog2(this.px, this.py, this.pz, a0, a1, b0, b1)
   }
 
   /** The coincident pair found by the last call, if any (indices of the loaded points). */
