@@ -682,3 +682,43 @@ export function blockLog2(px: usize, py: usize, pz: usize, a0: i32, a1: i32, b0:
   }
   return total + totalC
 }
+
+/** Σ_{a0 ≤ i < a1} Σ_{b0 ≤ j < b1, j > i when the ranges are equal} 1/|x_i − x_j| in R³ (the near field
+ *  of the 3-D FMM; the ranges are equal or disjoint). All terms are positive: each row is summed in
+ *  two SIMD lanes (at most a few hundred terms each) and the row sums are added with compensation.
+ *  A zero distance returns NaN and records the pair. */
+export function blockCoulomb3(px: usize, py: usize, pz: usize, a0: i32, a1: i32, b0: i32, b1: i32): f64 {
+  badI = -1
+  badJ = -1
+  accReset()
+  const same = a0 == b0
+  const one = f64x2.splat(1)
+  for (let i = a0; i < a1; i++) {
+    const xi = ld(px, i)
+    const yi = ld(py, i)
+    const zi = ld(pz, i)
+    const vx = f64x2.splat(xi)
+    const vy = f64x2.splat(yi)
+    const vz = f64x2.splat(zi)
+    let s0 = f64x2.splat(0)
+    let s1 = f64x2.splat(0)
+    const js = same ? i + 1 : b0
+    let j = js
+    for (; j + 3 < b1; j += 4) {
+      const r0 = rowR2(vx, vy, vz, vld(px, j), vld(py, j), vld(pz, j), true)
+      const r1 = rowR2(vx, vy, vz, vld(px, j + 2), vld(py, j + 2), vld(pz, j + 2), true)
+      s0 = f64x2.add(s0, f64x2.div(one, f64x2.sqrt(r0)))
+      s1 = f64x2.add(s1, f64x2.div(one, f64x2.sqrt(r1)))
+    }
+    const s = f64x2.add(s0, s1)
+    let row = f64x2.extract_lane(s, 0) + f64x2.extract_lane(s, 1)
+    for (; j < b1; j++) row += 1 / Math.sqrt(r2At(px, py, pz, i, j))
+    if (!(row < Infinity)) {
+      for (let k = js; k < b1; k++) {
+        if (r2At(px, py, pz, i, k) == 0) return flag(i, k)
+      }
+    }
+    accAdd(row)
+  }
+  return accS + accC
+}

@@ -35,16 +35,21 @@ export interface FastEnergyResult {
 /** Smallest N for which the 2-D log FMM replaces the direct sum (the FMM costs roughly 2.5 µs per
  *  point at 1e−10 against N/2 ns per point for the SIMD direct sum). */
 export const FMM2D_MIN_N = 20000
-/** Smallest N for which the 3-D Coulomb FMM (fmm3d.ts) replaces the direct sum in free space, at
- *  tolerances ≥ FMM3D_MIN_TOLERANCE. Measured 2026-12-02 on this 2-core machine (shared with other
- *  work, so contended), uniform points in the unit cube, single-thread SIMD direct sum against the FMM
- *  at tolerance 1e−3 (p = 11, θ = 0.5; bench/run.ts section 3b): N = 1e4: direct 0.116 s, FMM 4.49 s;
- *  N = 1e5: direct 10.3 s, FMM 86.6 s. With the direct sum ∝ N² and the FMM ∝ N they cross near
- *  N ≈ 8·10⁵ (extrapolated; against the 2-thread pool, 5.4 s at 1e5, near 1.6·10⁶). At 1e−6 (p = 16,
- *  θ = 0.4) the FMM took 67.9 s at N = 2e4 against 0.48 s direct, a crossover near 3·10⁶, so tighter
- *  tolerances keep the direct sum or the tree code. */
-export const FMM3D_MIN_N = 1000000
-export const FMM3D_MIN_TOLERANCE = 1e-3
+/** Smallest N for which the 3-D Coulomb FMM energy (fmm3d.ts, an order per far pair of cells)
+ *  replaces the single-thread SIMD direct sum in free space, by tolerance (Infinity: never). Measured
+ *  2026-12-02 on this 2-core machine, uniform points in the unit cube, seconds direct / FMM:
+ *    N = 3e4:  0.99 / 1.36 (1e−3), 1.72 (1e−4), 1.92 (1e−6), 1.60 (1e−8)
+ *    N = 5e4:  2.58 / 2.15 (1e−3), 3.01 (1e−4), 4.56 (1e−6), 3.98 (1e−8)
+ *    N = 1e5: 10.0  / 4.95 (1e−3), 6.56 (1e−4), 10.6 (1e−6), 14.6 (1e−8); 13.0 at 1e−10
+ *  The direct sum grows as N², the FMM here about as N^1.3; the thresholds sit at or above the
+ *  measured crossovers. */
+export function fmm3dMinN(tolerance: number): number {
+  if (tolerance >= 1e-3) return 50000
+  if (tolerance >= 1e-4) return 70000
+  if (tolerance >= 1e-6) return 150000
+  if (tolerance >= 1e-10) return 300000
+  return Infinity
+}
 /** Cost model of the tree code against the single-thread SIMD direct sum (measured in bench/run.ts):
  *  about 100 accepted nodes per point at θ = 0.5, each ~15 C(p + 3, 3) flops at ~1e9 flops/s, against
  *  N/2 pairs per point at ~1e9 pairs/s. The tree code wins only when N > 3000 C(p + 3, 3). */
@@ -67,7 +72,7 @@ export function chooseMethod(N: number, d: number, kernel: Kernel, geometry: Geo
   const direct: FastMethod = wasm ? 'direct-wasm' : 'direct-ts'
   const planar = geometry.kind === 'free' && (d === 1 || d === 2)
   if (kernel.name === 'log' && planar && N >= FMM2D_MIN_N && tolerance >= 1e-13) return 'fmm2d'
-  if (kernel.name === 'coulomb' && d === 3 && geometry.kind === 'free' && N >= FMM3D_MIN_N && tolerance >= FMM3D_MIN_TOLERANCE) return 'fmm3d'
+  if (kernel.name === 'coulomb' && d === 3 && geometry.kind === 'free' && N >= fmm3dMinN(tolerance)) return 'fmm3d'
   if ((d === 3 || geometry.kind === 'sphere') && treecodeWins(N, kernel, 3, tolerance)) return 'treecode'
   return direct
 }

@@ -19,6 +19,7 @@ interface PairExports {
   energyPower: (px: number, py: number, pz: number, n: number, i0: number, i1: number, mode: number, s: number) => number
   fieldLog2: (px: number, py: number, n: number, i0: number, i1: number, phi: number, fx: number, fy: number) => number
   blockLog2: (px: number, py: number, pz: number, a0: number, a1: number, b0: number, b1: number) => number
+  blockCoulomb3: (px: number, py: number, pz: number, a0: number, a1: number, b0: number, b1: number) => number
   fieldCoulomb3: (px: number, py: number, pz: number, n: number, i0: number, i1: number, phi: number, fx: number, fy: number, fz: number) => number
 }
 
@@ -105,6 +106,12 @@ export class PairKernels {
    *  `coincidence`). */
   blockLog2(a0: number, a1: number, b0: number, b1: number): number {
     return this.x.blockLog2(this.px, this.py, this.pz, a0, a1, b0, b1)
+  }
+
+  /** Σ 1/|x_i − x_j| over i in [a0, a1), j in [b0, b1) (j > i when the ranges are equal) for loaded
+   *  points in space; NaN when two points coincide (see `coincidence`). */
+  blockCoulomb3(a0: number, a1: number, b0: number, b1: number): number {
+    return this.x.blockCoulomb3(this.px, this.py, this.pz, a0, a1, b0, b1)
   }
 
   /** The coincident pair found by the last call, if any (indices of the loaded points). */

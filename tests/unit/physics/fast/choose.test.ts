@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest'
 import { pairSum } from '../../../../shared/physics/energy'
 import { EngineInputError } from '../../../../shared/physics/errors'
-import { FMM2D_MIN_N, FMM3D_MIN_N, chooseMethod, fastEnergy, treecodeWins } from '../../../../shared/physics/fast/choose'
+import { FMM2D_MIN_N, chooseMethod, fastEnergy, fmm3dMinN, treecodeWins } from '../../../../shared/physics/fast/choose'
 import { clustered, relErr, sphere, uniform } from './configurations'
 
 describe('choice of the pair-sum method', () => {
@@ -17,9 +17,13 @@ describe('choice of the pair-sum method', () => {
     expect(treecodeWins(3000 * 165 + 1, { name: 'coulomb' }, 3, 1e-2)).toBe(true)
     expect(treecodeWins(3000 * 165, { name: 'coulomb' }, 3, 1e-2)).toBe(false)
     expect(chooseMethod(1e6, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-2, true)).toBe('fmm3d')
-    expect(chooseMethod(FMM3D_MIN_N - 1, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-2, true)).toBe('treecode')
-    expect(chooseMethod(FMM3D_MIN_N, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-4, true)).toBe('direct-wasm')
-    expect(chooseMethod(1e6, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-6, true)).toBe('direct-wasm')
+    expect(chooseMethod(fmm3dMinN(1e-2) - 1, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-2, true)).toBe('direct-wasm')
+    expect(chooseMethod(fmm3dMinN(1e-4), 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-4, true)).toBe('fmm3d')
+    expect(chooseMethod(fmm3dMinN(1e-6) - 1, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-6, true)).toBe('direct-wasm')
+    expect(chooseMethod(1e6, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-6, true)).toBe('fmm3d')
+    expect(chooseMethod(1e6, 3, { name: 'coulomb' }, { kind: 'free', d: 3 }, 1e-12, true)).toBe('direct-wasm')
+    // tighter tolerances need larger N before the FMM pays
+    for (const [loose, tight] of [[1e-3, 1e-4], [1e-4, 1e-6], [1e-6, 1e-10]]) expect(fmm3dMinN(loose)).toBeLessThanOrEqual(fmm3dMinN(tight))
     expect(chooseMethod(1e6, 3, { name: 'riesz', s: 1 }, { kind: 'sphere' }, 1e-2, true)).toBe('treecode')
     expect(chooseMethod(1e6, 3, { name: 'riesz', s: 1.5 }, { kind: 'free', d: 3 }, 1e-2, true)).toBe('treecode')
     expect(chooseMethod(1e6, 3, { name: 'riesz', s: 1 }, { kind: 'sphere' }, 1e-10, true)).toBe('direct-wasm')

@@ -45,12 +45,14 @@ describe('fmm3d order and bound', () => {
 
 describe('fmm3d against direct compensated sums', () => {
   // leaf size 24 for the lattice: its cells are full cubes, so far pairs need a few levels
-  const cases: Array<[string, Float64Array, number | undefined]> = [
-    ['uniform cube', uniform(1500, 3, 21), undefined],
-    ['Gaussian blobs of scales 1, 1e−2, 1e−5', clustered(1500, 3, 22), undefined],
-    ['jittered cubic lattice', jitteredLattice(1331, 23), 24],
+  // the last entry: leaf size and direct-sum threshold with which (nearly) every far pair of cells is
+  // expanded (at these sizes most would be summed directly)
+  const cases: Array<[string, Float64Array, number | undefined, { leafSize: number, farDirectUpTo: number }]> = [
+    ['uniform cube', uniform(1500, 3, 21), undefined, { leafSize: 32, farDirectUpTo: 0 }],
+    ['Gaussian blobs of scales 1, 1e−2, 1e−5', clustered(1500, 3, 22), undefined, { leafSize: 32, farDirectUpTo: 0 }],
+    ['jittered cubic lattice', jitteredLattice(1331, 23), 24, { leafSize: 8, farDirectUpTo: 100 }],
   ]
-  for (const [name, points, leafSize] of cases) {
+  for (const [name, points, leafSize, expanded] of cases) {
     it(`${name}: energy and potentials within 1e−3, 1e−6, 1e−10`, () => {
       const ref = direct(points)
       const N = points.length / 3
@@ -58,8 +60,13 @@ describe('fmm3d against direct compensated sums', () => {
         const e = fmm3dEnergy(points, { tolerance, leafSize })
         expect(e.method).toBe('fmm3d')
         expect(e.errorBound).toBeLessThanOrEqual(tolerance)
-        expect(e.parameters.cellInteractions).toBeGreaterThan(0)
         expect(relErr(e.value, ref.energy)).toBeLessThanOrEqual(tolerance)
+        // with far pairs expanded, the measured error must also respect the stated bound (up to
+        // rounding, 1e−13)
+        const small = fmm3dEnergy(points, { tolerance, ...expanded })
+        expect(small.parameters.cellInteractions).toBeGreaterThan(0)
+        expect(small.errorBound).toBeLessThanOrEqual(tolerance)
+        expect(relErr(small.value, ref.energy)).toBeLessThanOrEqual(small.errorBound + 1e-13)
         const f = fmm3dFields(points, { tolerance, leafSize })
         let worst = 0
         for (let i = 0; i < N; i++) worst = Math.max(worst, relErr(f.potential[i], ref.potential[i]))
