@@ -1,8 +1,8 @@
 // Energy conventions. Published papers write the energy of N points with a pair sum counted once
 // (½Σ_{i≠j} = Σ_{i<j}) or twice (Σ_{i≠j}), a field term Σ V(x_i) scaled by 1, N/2 or N, a logarithmic
 // kernel written as −log|x| or with the opposite overall sign, and a Gibbs weight e^{−βH}, e^{−βH/2}
-// or e^{−βN^{2/d−1}H/2}. The engine's canonical record (MATH.md §2; Forrester, Log-gases and Random
-// Matrices, 2010, §1.4) is
+// or e^{−βN^{2/d−1}H/2}. The engine's canonical record (cf. Forrester, Log-gases and Random Matrices,
+// 2010, §1.4) is
 //
 //   H = Σ_{i≠j} g(x_i − x_j) + N Σ_i V(x_i),   g = −log|x| for log kernels,   weight e^{−βH/2}.
 //
@@ -40,7 +40,7 @@ export interface EnergyConvention {
   readonly gibbs: GibbsScaling
 }
 
-/** The engine's canonical convention (MATH.md §2). */
+/** The engine's canonical convention: H = Σ_{i≠j} g + N Σ V, g = −log|x|, weight e^{−βH/2}. */
 export const CANONICAL_CONVENTION: EnergyConvention = Object.freeze({
   pairs: 'full',
   fieldScale: 'N',

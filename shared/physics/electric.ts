@@ -1,4 +1,4 @@
-// Electric (truncated) energy of a configuration with smeared charges (MATH.md §5):
+// Electric (truncated) energy of a configuration with smeared charges (sources below):
 //   value = (1/c_d) ∫ |∇h_{N,η}|² = ∬ g d(Σ_i δ^{(η_i)}_{x_i} − Nμ)^{⊗2}
 //         = Σ_{i≠j} ∬ g dδ^{(η_i)}_{x_i} dδ^{(η_j)}_{x_j} + Σ_i g(η_i) − 2N Σ_i ⟨h^μ⟩_{∂B(x_i,η_i)} + N² ∬ g dμ dμ,
 // and the lower bound it gives for the next-order energy F_N (equality when the closed balls

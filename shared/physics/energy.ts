@@ -1,6 +1,6 @@
 // Energies of point configurations in free space R^d and on the unit sphere S² (chordal distances):
 //   pair sum  Σ_{i<j} g(x_i − x_j),   confinement  Σ_i V(x_i),
-//   canonical energy  H = Σ_{i≠j} g(x_i − x_j) + N Σ_i V(x_i)   (MATH.md §2).
+//   canonical energy  H = Σ_{i≠j} g(x_i − x_j) + N Σ_i V(x_i)   (the convention of this engine).
 // The log kernel is summed as −½ Σ log|x_i − x_j|², multiplying the squared distances into a running
 // product and taking one logarithm whenever the product leaves [1e−150, 1e150] (a factor outside that
 // range is taken by its own logarithm), so few logarithms are evaluated and no product over- or

@@ -1,4 +1,4 @@
-// Next-order energy and the splitting of the energy (MATH.md §4). With the fluctuation Σδ_{x_i} − Nμ,
+// Next-order energy and the splitting of the energy (sources below). With the fluctuation Σδ_{x_i} − Nμ,
 //   F_N(X_N, μ) = Σ_{i≠j} g(x_i − x_j) − 2N Σ_i h^μ(x_i) + N² ∬ g dμ dμ,
 // and for μ = μ_V the exact identity
 //   H_N(X_N) = N² I_V(μ_V) + 2N Σ_i ζ(x_i) + F_N(X_N, μ_V),   ζ = h^μ + V/2 − c_V,

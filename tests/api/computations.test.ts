@@ -107,7 +107,7 @@ describe('computations', () => {
     expect(after.computation.status).toBe('current')
     expect(after.computation.resultId).not.toBe(before.computation.resultId)
     const row = after.result!.table.rows[0]!
-    // ½Σ_{i≠j} g + Σ V (MATH.md §2): the declared convention, from the same pair sum and confinement.
+    // ½Σ_{i≠j} g + Σ V: the declared convention, from the same pair sum and confinement.
     expect(row.Hconv).toBeCloseTo(Number(row.pairSum) + Number(row.confinement), 10)
   })
 

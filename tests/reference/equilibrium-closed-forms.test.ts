@@ -1,4 +1,5 @@
-// Closed-form equilibrium measures for V = a|x|² (MATH.md §3) against their published constants and
+// Closed-form equilibrium measures for V = a|x|² (sources in shared/physics/equilibrium/closed-forms.ts and
+// in each block) against their published constants and
 // against independent numerical quadrature of the defining integrals.
 import { describe, it, expect } from 'vitest'
 import {
@@ -144,7 +145,7 @@ describe('semicircle law (d = 1, log, V = a x²)', () => {
     const mu = semicircleMeasure(1)
     expect(mu.selfEnergy).toBeCloseTo(0.5 * Math.log(2) + 0.25, 15)
     expect(mu.IV).toBeCloseTo(0.5 * Math.log(2) + 0.75, 15)
-    expect(mu.cV).toBeCloseTo(0.5 * Math.log(2) + 0.5, 15) // c_V = ∬ + ½∫V (MATH.md §3)
+    expect(mu.cV).toBeCloseTo(0.5 * Math.log(2) + 0.5, 15) // c_V = ∬ + ½∫V (Saff & Totik 1997, ch. I, with Q = V/2)
     const R = Math.SQRT2
     // ∬ = ∫ h dμ with h itself from quadrature; x = R sin ψ
     const self = gl(psi => semicircleH(R, R * Math.sin(psi)) * (2 / Math.PI) * Math.cos(psi) ** 2, -Math.PI / 2, Math.PI / 2, 48)
@@ -295,7 +296,7 @@ describe('uniform disk (d = 2, log, V = a|x|²)', () => {
       }
       expect(Math.abs(mu.sphereAverage(x, 0, eta) - s / n)).toBeLessThan(1e-11)
     }
-    // inside the support: h − ⟨h⟩ = c_d m η²/(2d) = aη²/2 (MATH.md §5)
+    // inside the support: h − ⟨h⟩ = c_d m η²/(2d) = aη²/2 (h is quadratic there: elementary)
     expect(mu.potential(at(2, 0.3)) - mu.sphereAverage(at(2, 0.3), 0, 0.4)).toBeCloseTo(0.08, 15)
     expect(diskCircleAverage(1, 0.5, 0)).toBeCloseTo(mu.potential(at(2, 0.5)), 15)
   })
@@ -304,7 +305,7 @@ describe('uniform disk (d = 2, log, V = a|x|²)', () => {
 // ——— d = 3: ball ———
 
 describe('uniform ball (d = 3, coulomb, V = a|x|²)', () => {
-  it('a = 1: ∬ = 6/5, I_V = 9/5, c_V = 3/2 (MATH.md §3; Landkof 1972), also by quadrature', () => {
+  it('a = 1: ∬ = 6/5, I_V = 9/5, c_V = 3/2 (Landkof 1972), also by quadrature', () => {
     const mu = uniformBallMeasure(1)
     expect(mu.selfEnergy).toBeCloseTo(1.2, 15)
     expect(mu.IV).toBeCloseTo(1.8, 15)
@@ -354,7 +355,7 @@ describe('uniform ball (d = 3, coulomb, V = a|x|²)', () => {
       }
       expect(Math.abs(mu.sphereAverage(x, 0, eta) - s / M)).toBeLessThan(1e-10)
     }
-    expect(mu.potential(at(3, 0.4)) - ballSphereAverage(1, 0.4, 0.5)).toBeCloseTo(0.125, 15) // aη²/2 (MATH.md §5)
+    expect(mu.potential(at(3, 0.4)) - ballSphereAverage(1, 0.4, 0.5)).toBeCloseTo(0.125, 15) // aη²/2 (h is quadratic in the ball: elementary)
   })
 })
 

@@ -124,7 +124,7 @@ describe('line equilibrium measure, V = x²: the semicircle', () => {
   const m = solveLineEquilibrium(V)
 
   it('has support [−√2, √2] and the semicircle density (1/π)√(2 − x²)', () => {
-    // Saff & Totik 1997, ch. IV.5; Forrester 2010, §1.4 (MATH.md §3): density (a/π)√(2/a − x²) on |x| ≤ √(2/a)
+    // Saff & Totik 1997, ch. IV.5; Forrester 2010, §1.4: density (a/π)√(2/a − x²) on |x| ≤ √(2/a)
     expect(m.support.kind).toBe('intervals')
     if (m.support.kind !== 'intervals') return
     expect(m.support.intervals).toHaveLength(1)
@@ -141,7 +141,7 @@ describe('line equilibrium measure, V = x²: the semicircle', () => {
   })
 
   it('has I_V = ½ log 2 + ¾, ∬ g = ½ log 2 + ¼, c_V = ½ log 2 + ½', () => {
-    // Saff & Totik 1997; Forrester 2010 (MATH.md §3); c_V = ∬g + ½∫V with ∫x² dμ = ½ (second moment of the semicircle)
+    // Saff & Totik 1997; Forrester 2010; c_V = ∬g + ½∫V with ∫x² dμ = ½ (second moment of the semicircle)
     expect(Math.abs(m.IV - (0.5 * Math.LN2 + 0.75))).toBeLessThan(1e-10)
     expect(Math.abs(m.selfEnergy - (0.5 * Math.LN2 + 0.25))).toBeLessThan(1e-10)
     expect(Math.abs(m.cV - (0.5 * Math.LN2 + 0.5))).toBeLessThan(1e-10)
@@ -166,7 +166,7 @@ describe('line equilibrium measure, V = x²: the semicircle', () => {
   })
 
   it('scales with a: V = 3x² has density (3/π)√(2/3 − x²)', () => {
-    // MATH.md §3 (Saff & Totik 1997): density (a/π)√(2/a − x²)
+    // Saff & Totik 1997: density (a/π)√(2/a − x²)
     const m3 = solveLineEquilibrium(quadraticPotential(3, 1))
     for (const x of [0, 0.3, -0.7, 0.8]) {
       expect(m3.density([x])).toBeCloseTo(3 / Math.PI * Math.sqrt(Math.max(0, 2 / 3 - x * x)), 10)
@@ -181,7 +181,7 @@ describe('line equilibrium measure, quartic potentials (Brézin, Itzykson, Paris
   //   u(λ) = (1/π)(1/2 + 4g a² + 2g λ²) √(4a² − λ²),  12 g a⁴ + a² = 1.
   // Translation: BIPZ's saddle point is p.v.∫ u(μ)/(λ − μ) dμ = V'(λ)/2 for the weight exp(−N Σ V(λ_i)) Π|Δ|²,
   // and our Euler–Lagrange equation h^μ + V/2 = c differentiates to the same p.v.∫ dμ(y)/(x − y) = V'(x)/2:
-  // the normalisations coincide, V_ours = V_BIPZ. (Check: g = 0 gives radius 2 for V = λ²/2, as MATH.md's
+  // the normalisations coincide, V_ours = V_BIPZ. (Check: g = 0 gives radius 2 for V = λ²/2, as the semicircle
   // (a/π)√(2/a − x²) with a = ½.) With g = 1: a² = 1/4, support [−1, 1], u = (1/π)(3/2 + 2λ²)√(1 − λ²).
   it('V = x²/2 + x⁴ (g = 1): support [−1, 1] and the BIPZ density', () => {
     const V = quarticPotential(0.5, 1, 1)
@@ -327,8 +327,8 @@ describe('line equilibrium measure, more cuts and the two-cut family', () => {
   // Polynomial pull-back (derived here; cf. Ransford, Potential Theory in the Complex Plane, 1995, §5.2 on
   // polynomial preimages): for P of degree n with leading coefficient 1, log|P(x) − u| = Σ_k log|x − y_k(u)|
   // over the n preimages y_k(u), so μ = (1/n)·(pull-back of ν) has h^μ(x) = h^ν(P(x))/n. With V = P²/c the
-  // Euler–Lagrange conditions for μ become those of W(u) = n u²/c for ν: ν is the semicircle of MATH.md §3 with
-  // a = n/c, provided every level P = u, |u| ≤ √(2/a), has n real roots. Then the support has n intervals of
+  // Euler–Lagrange conditions for μ become those of W(u) = n u²/c for ν: ν is the semicircle (Saff & Totik 1997)
+  // with a = n/c, provided every level P = u, |u| ≤ √(2/a), has n real roots. Then the support has n intervals of
   // mass 1/n, ρ_V(x) = ρ_W(P(x))|P'(x)|/n, and I_V = ∬g dν dν / n + ∫u²/c dν.
   it('V = ((x² − 1)(x² − 9))²/100: four intervals, the pull-back of a semicircle', () => {
     const P = (x: number) => (x * x - 1) * (x * x - 9)

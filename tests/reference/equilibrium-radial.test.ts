@@ -40,7 +40,7 @@ function checkEulerLagrange(m: RadialPlaneMeasure, V: Potential, tol: number): v
 }
 
 describe('radial plane equilibrium, V = a|x|²: the uniform disk', () => {
-  it('a = 1: radius 1, density 1/π, I_V = ¾, c_V = ½, ∬g = ¼ (MATH.md §3; Saff & Totik 1997, Ginibre 1965)', () => {
+  it('a = 1: radius 1, density 1/π, I_V = ¾, c_V = ½, ∬g = ¼ (Saff & Totik 1997, Ginibre 1965)', () => {
     const V = quadraticPotential(1, 2)
     const m = solveRadialPlaneEquilibrium(V)
     expect(m.support).toEqual({ kind: 'ball', center: [0, 0], radius: m.outer })
@@ -52,7 +52,7 @@ describe('radial plane equilibrium, V = a|x|²: the uniform disk', () => {
     expect(m.cV).toBeCloseTo(0.5, 14)
     expect(m.selfEnergy).toBeCloseTo(0.25, 14)
     expect(m.engineVersion).toBe(ENGINE_VERSION)
-    // h^μ = (1 − |x|²)/2 inside and −log|x| outside (MATH.md §3)
+    // h^μ = (1 − |x|²)/2 inside and −log|x| outside (Newton's theorem: elementary)
     expect(m.potential([0.3, 0.4])).toBeCloseTo((1 - 0.25) / 2, 15)
     expect(m.potential([3, 4])).toBeCloseTo(-Math.log(5), 15)
     checkEulerLagrange(m, V, 1e-13)
@@ -66,7 +66,7 @@ describe('radial plane equilibrium, V = a|x|²: the uniform disk', () => {
     expect(m.IV).toBeCloseTo(0.75 + 0.5 * Math.log(2.5), 13)
   })
 
-  it('sphere averages: h^μ − ⟨h^μ⟩ = c_d m η²/(2d) = η²/2 inside; harmonic outside (MATH.md §5)', () => {
+  it('sphere averages: h^μ − ⟨h^μ⟩ = c_d m η²/(2d) = η²/2 inside; harmonic outside (h^μ is quadratic inside: elementary)', () => {
     const m = solveRadialPlaneEquilibrium(quadraticPotential(1, 2))
     expect(m.sphereAverage([0.2, 0.1], 0, 0.3)).toBeCloseTo(m.potential([0.2, 0.1]) - 0.045, 13)
     // the circle lies outside the disk and does not enclose the origin: mean-value property of −log|y|

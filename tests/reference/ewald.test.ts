@@ -195,7 +195,7 @@ describe('signed charges: the Madelung constant of rock salt', () => {
 describe('charges in a plane with 1/r interaction (a sheet with a neutralising background)', () => {
   // Bonsall & Maradudin, Phys. Rev. B 15 (1977): the triangular lattice has energy −1.1061 e²/r_s per
   // particle with r_s = (πn)^{−1/2} the Wigner–Seitz radius; per particle the energy is ½c₀ in the
-  // convention H = Σ_{i≠j} G + N c₀. (MATH.md §9 writes the same number per e²√n; with n = 1 the
+  // convention H = Σ_{i≠j} G + N c₀. (The number is sometimes quoted per e²√n instead; with n = 1 the
   // two differ by √π, and the Ewald sum agrees with the r_s form.)
   it('triangular lattice: ½ c₀ · r_s = −1.1061 (4 digits as published), α-independent', () => {
     const rs = 1 / Math.sqrt(Math.PI) // density n = 1

@@ -6,11 +6,11 @@ import { symmetricTridiagonalEigenvalues } from '../../shared/physics/linalg/tri
 
 // Minimal Coulomb energies Σ_{i<j} 1/|x_i − x_j| on the unit sphere (the Thomson problem).
 const THOMSON: Array<[number, number]> = [
-  [2, 0.5], // MATH.md §10 (antipodal pair)
-  [3, Math.sqrt(3)], // MATH.md §10 (equilateral triangle on a great circle)
-  [4, 3.674234614], // MATH.md §10; Wales, McKay & Altschuler, Phys. Rev. B 79 (2009), table
-  [5, 6.474691495], // same sources
-  [6, 9.985281374], // same sources
+  [2, 0.5], // antipodal pair (elementary closed form)
+  [3, Math.sqrt(3)], // equilateral triangle on a great circle (elementary closed form)
+  [4, 3.674234614], // regular tetrahedron, 6/√(8/3); Wales, McKay & Altschuler, Phys. Rev. B 79 (2009), table
+  [5, 6.474691495], // Wales, McKay & Altschuler 2009, table
+  [6, 9.985281374], // Wales, McKay & Altschuler 2009, table
   [7, 14.452977414], // Wales, McKay & Altschuler 2009 (value recalled from memory)
   [8, 19.675287861], // Wales, McKay & Altschuler 2009 (value recalled from memory)
   [9, 25.759986531], // Wales, McKay & Altschuler 2009 (value recalled from memory)
@@ -20,7 +20,9 @@ const THOMSON: Array<[number, number]> = [
 ]
 
 // Minimal logarithmic energies Σ_{i<j} log(1/|x_i − x_j|) on the unit sphere (Ridgway & Cheviakov,
-// Comput. Phys. Commun. 233, 2018, as quoted in MATH.md §10).
+// Comput. Phys. Commun. 233, 2018). Each entry is also the energy of a configuration in closed form: the
+// antipodal pair, the equilateral triangle, the regular tetrahedron, the triangular bipyramid
+// (−4 log 2 − (3/2) log 3) and the octahedron (elementary).
 const LOG_SPHERE: Array<[number, number]> = [
   [2, -Math.log(2)],
   [3, -1.5 * Math.log(3)],

@@ -1,6 +1,6 @@
 // The partition-function estimator against exact values — Mehta's integral: log Z(β₁) − log Z(β₀) for the
 // Gaussian β-ensemble estimated by thermodynamic integration over MCMC energy means, compared with
-// the exact difference from Mehta's integral (MATH.md §6; Mehta, Random Matrices, 3rd ed. 2004).
+// the exact difference from Mehta's integral (Mehta, Random Matrices, 3rd ed. 2004).
 import { describe, expect, it } from 'vitest'
 import { gaussianLogZ, ginibreLogZ } from '../../shared/physics/partition/exact'
 import { logGamma } from '../../shared/physics/partition/log-gamma'

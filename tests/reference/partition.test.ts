@@ -13,8 +13,8 @@ function mehtaByQuadrature(beta: number): number {
   return integrateAdaptive(y => inner(y) * Math.exp(-y * y / 2), -14, 14, { absTol: 1e-14, relTol: 1e-13 }).value
 }
 
-describe('Mehta\'s integral (Mehta, Random Matrices, 3rd ed. 2004, eq. 17.6.7; MATH.md §6)', () => {
-  const published: Array<[number, number]> = [[1, 4 * Math.sqrt(Math.PI)], [2, 4 * Math.PI], [4, 24 * Math.PI]] // N = 2 values, MATH.md §6
+describe('Mehta\'s integral (Mehta, Random Matrices, 3rd ed. 2004, eq. 17.6.7)', () => {
+  const published: Array<[number, number]> = [[1, 4 * Math.sqrt(Math.PI)], [2, 4 * Math.PI], [4, 24 * Math.PI]] // N = 2 values of the formula, 2π Γ(1 + β)/Γ(1 + β/2)
   for (const [beta, value] of published) {
     it(`N = 2, β = ${beta}: the formula, the published value and a 2-D quadrature agree`, () => {
       expect(Math.exp(logMehtaIntegral(2, beta))).toBeCloseTo(value, 12)
@@ -45,7 +45,7 @@ describe('Mehta\'s integral (Mehta, Random Matrices, 3rd ed. 2004, eq. 17.6.7; M
   })
 })
 
-describe('Ginibre\'s integral (Ginibre, J. Math. Phys. 6, 1965; MATH.md §6)', () => {
+describe('Ginibre\'s integral (Ginibre, J. Math. Phys. 6, 1965)', () => {
   it('∫ Π|z_i − z_j|² e^{−Σ|z_i|²} d²z = π^N Π k! for N = 1, 2, 3 by Gauss–Hermite quadrature in every real coordinate', () => {
     const { x, w } = gaussHermite(4) // exact: each real coordinate appears with degree ≤ 2(N − 1) = 4
     const factorials = [1, 1, 2, 6]
@@ -124,6 +124,6 @@ describe('large-N expansion of log Z against the exact Gaussian cases', () => {
     const nTerm = e.terms.find(t => t.order === 'N')
     expect(nTerm?.status).toBe('not available')
     expect(e.remainder).toBe('O(N)')
-    expect(e.approximation).toBeCloseTo(-(3 / 2) * 0.75 * 1e4 + (3 / 4) * 100 * Math.log(100), 9) // I_V = 3/4 (MATH.md §3)
+    expect(e.approximation).toBeCloseTo(-(3 / 2) * 0.75 * 1e4 + (3 / 4) * 100 * Math.log(100), 9) // I_V = 3/4 (uniform disk, a = 1; Saff & Totik 1997, ch. IV)
   })
 })

@@ -4,10 +4,10 @@ import type { EtaRule } from '../../shared/physics/electric'
 import { gridElectricEnergy } from '../support/poisson-grid'
 import { pointsInBall, seeded, uniformDisk } from '../support/uniform-measures'
 
-// An independent route to the 2-D electric energy (MATH.md §5): solve −Δh = 2π(Σ δ^{(η_i)}_{x_i} − Nμ)
-// by bilinear finite elements on a box with the exact far-field potential as Dirichlet data, and
-// integrate |∇h|²/(2π) (tests/support/poisson-grid.ts). The potential has gradient jumps on the
-// circles, so the Galerkin energy converges at first order in the mesh size h and from below
+// An independent route to the 2-D electric energy (Sandier & Serfaty, Ann. Probab. 43, 2015): solve
+// −Δh = 2π(Σ δ^{(η_i)}_{x_i} − Nμ) by bilinear finite elements on a box with the exact far-field potential
+// as Dirichlet data, and integrate |∇h|²/(2π) (tests/support/poisson-grid.ts). The potential has gradient
+// jumps on the circles, so the Galerkin energy converges at first order in the mesh size h and from below
 // (Galerkin orthogonality: the discrete energy is the exact one minus the energy of the error;
 // Strang & Fix, An Analysis of the Finite Element Method, 1973, ch. 1 and 3). Each circle carries a
 // gradient jump 1/η_i over a length 2πη_i, so the stated discretisation error is

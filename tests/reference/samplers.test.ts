@@ -27,7 +27,7 @@ function digamma(x: number): number {
 }
 
 /** E[H] of the canonical 1-D log-gas with V = a x² at β: −2 d/dβ log Z, with Z from Mehta's integral
- *  (Mehta, Random Matrices, 3rd ed. 2004; MATH.md §6) after x = λ/√(βNa):
+ *  (Mehta, Random Matrices, 3rd ed. 2004) after x = λ/√(βNa):
  *  log Z = −(N/2 + βN(N−1)/4) log(βNa) + Σ_j log Γ(1 + jβ/2) − N log Γ(1 + β/2) + const. */
 function gaussianEnsembleMeanEnergy(N: number, beta: number, a: number): number {
   let s = (N * (N - 1) / 4) * Math.log(beta * N * a) + (N / 2 + (beta * N * (N - 1)) / 4) / beta + (N / 2) * digamma(1 + beta / 2)
@@ -137,7 +137,7 @@ describe('Ginibre ensemble (Ginibre, J. Math. Phys. 6, 1965; Kostlan, Linear Alg
       }
     }
     radii.forEach((R, i) => {
-      // uniform law on the unit disk: F(r) = r² (MATH.md §6); the finite-N edge layer has width ~1/√N
+      // uniform law on the unit disk: F(r) = r² (the circular law; Ginibre 1965); the finite-N edge layer has width ~1/√N
       expect(Math.abs(counts[i] / (M * N) - R * R)).toBeLessThan(0.02)
     })
   })

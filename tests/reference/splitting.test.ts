@@ -1,4 +1,4 @@
-// The splitting identity H_N = N² I_V + 2N Σ ζ(x_i) + F_N(X_N, μ_V) (MATH.md §4; Sandier & Serfaty,
+// The splitting identity H_N = N² I_V + 2N Σ ζ(x_i) + F_N(X_N, μ_V) (Sandier & Serfaty,
 // Ann. Probab. 43 (2015)) on seeded
 // random configurations, with points inside and outside the support, and F_N against its definition.
 import { describe, it, expect } from 'vitest'
@@ -81,7 +81,7 @@ describe('splitting identity', () => {
     let hSum = 0
     for (let i = 0; i < N; i++) {
       const r2 = conf.points[2 * i] ** 2 + conf.points[2 * i + 1] ** 2
-      hSum += r2 <= 1 ? (1 - r2) / 2 : -0.5 * Math.log(r2) // MATH.md §3, a = 1
+      hSum += r2 <= 1 ? (1 - r2) / 2 : -0.5 * Math.log(r2) // uniform disk, a = 1 (Saff & Totik 1997, ch. IV)
     }
     const F = 2 * pairSumNaive(conf, { name: 'log' }, { kind: 'free', d: 2 }) - 2 * N * hSum + N * N * 0.25
     expect(Math.abs(res.nextOrder - F)).toBeLessThanOrEqual(1e-10 * (Math.abs(F) + N * N))

@@ -167,7 +167,7 @@ describe('Poisson processes (Illian, Penttinen, Stoyan & Stoyan 2008, §2.4, §4
 })
 
 describe('the 2-D plasma at β = 2 (Ginibre eigenvalues, density 1/π)', () => {
-  // Ginibre, J. Math. Phys. 6 (1965); MATH.md §8. The bulk disk of radius 6 lies well inside the support of
+  // Ginibre, J. Math. Phys. 6 (1965). The bulk disk of radius 6 lies well inside the support of
   // radius √80 ≈ 8.9, where the finite-N density differs from 1/π by less than 1e−6.
   const rng = createTestRng(31)
   const configs = Array.from({ length: 30 }, () => planar(ginibreEigenvalues(80, rng)))
@@ -179,7 +179,7 @@ describe('the 2-D plasma at β = 2 (Ginibre eigenvalues, density 1/π)', () => {
     expect(t.rows[0].g).toBeLessThan(0.1)
   })
 
-  it('number variance R² e^{−2R²}[I₀(2R²) + I₁(2R²)] (MATH.md §8; Shirai 2006, recalled from memory), well below the Poisson value R²', () => {
+  it('number variance R² e^{−2R²}[I₀(2R²) + I₁(2R²)] (Shirai 2006, recalled from memory), well below the Poisson value R²', () => {
     const t = numberVariance(configs, { window: { kind: 'ball', center: [0, 0], radius: 6 }, radii: [0.5, 1, 2], centres: 100, uniform: rng.uniform })
     for (const row of t.rows) {
       const ref = ginibreNumberVariance(row.r)

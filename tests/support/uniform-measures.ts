@@ -148,7 +148,8 @@ export function semicircle(R = Math.SQRT2): EquilibriumMeasure {
   }
 }
 
-/** F_N = Σ_{i≠j} g(x_i − x_j) − 2N Σ h^μ(x_i) + N² ∬ g dμ dμ (MATH.md §4), directly from its definition. */
+/** F_N = Σ_{i≠j} g(x_i − x_j) − 2N Σ h^μ(x_i) + N² ∬ g dμ dμ (Sandier & Serfaty, Ann. Probab. 43, 2015),
+ *  directly from its definition. */
 export function nextOrderEnergy(points: ArrayLike<number>, d: number, measure: EquilibriumMeasure): number {
   const N = points.length / d
   let pairs = 0

@@ -34,7 +34,7 @@ describe('engine command line', () => {
 
   it('computes the energy of two points by hand', async () => {
     // x = ±1 on the line, V = x²: Σ_{i<j} −log|x_i − x_j| = −log 2, Σ V = 2,
-    // canonical H = 2·(−log 2) + N·Σ V = −2 log 2 + 4 (MATH.md §2).
+    // canonical H = 2·(−log 2) + N·Σ V = −2 log 2 + 4 (the convention of this engine).
     const out = await json(['energy', '--input', 'two.csv', '--potential', 'x^2'], { 'two.csv': 'x\n-1\n1\n' })
     expect(out.N).toBe(2)
     expect(out.d).toBe(1)
@@ -53,7 +53,7 @@ describe('engine command line', () => {
   })
 
   it('gives the closed-form equilibrium measure of the quadratic potential', async () => {
-    // Semicircle on [−√2, √2] for V = x² (MATH.md §3; Saff & Totik 1997): I_V = ½ log 2 + ¾.
+    // Semicircle on [−√2, √2] for V = x² (Saff & Totik 1997, ch. IV): I_V = ½ log 2 + ¾.
     const out = await json(['equilibrium', '--dim', '1', '--potential', 'x^2'], {})
     expect(out.method).toBe('closed-form')
     expect(out.supportRadius).toBeCloseTo(Math.SQRT2, 14)
@@ -66,7 +66,8 @@ describe('engine command line', () => {
     expect(out.N).toBe(5)
     expect(out.IV).toBeCloseTo(0.75, 14)
     expect(Math.abs(out.splittingResidual.relative)).toBeLessThan(1e-12)
-    // Balls of radius 0.01 around these points are disjoint, so the lower bound is attained (MATH.md §5).
+    // Balls of radius 0.01 around these points are disjoint, so the lower bound is attained (Newton's
+    // theorem: Lieb & Loss, Analysis, 2nd ed. 2001, Thm 9.7).
     expect(out.electric[0].overlaps).toBe(0)
     expect(Math.abs(out.electric[0].gap)).toBeLessThan(1e-9)
   })

@@ -1,5 +1,5 @@
-// Equilibrium measures in closed form for V(x) = a|x|² (MATH.md §3), with their potentials
-// h^μ(x) = ∫ g(x−y) dμ(y), the constants ∬ g dμ dμ, I_V, c_V, the effective confinement
+// Equilibrium measures in closed form for V(x) = a|x|² (sources at the end of this comment), with their
+// potentials h^μ(x) = ∫ g(x−y) dμ(y), the constants ∬ g dμ dμ, I_V, c_V, the effective confinement
 // ζ = h^μ + V/2 − c_V and the averages of h^μ over spheres ∂B(x, η).
 //   d = 1, log: semicircle (a/π)√(R² − x²), R = √(2/a); h = −log(R/2) + ½ − x²/R² on [−R, R] and,
 //     with u = |x|/R > 1, h = −log(R/2) + ½ − u/(u + √(u²−1)) − log(u + √(u²−1)) (integral of the
@@ -220,7 +220,8 @@ export function semicircleMeasure(a: number): EquilibriumMeasure {
   })
 }
 
-/** For the line embedded in the plane (MATH.md §5, d = 1): the average of the planar potential
+/** For the line embedded in the plane (d = 1; Sandier & Serfaty, "1D log gases and the renormalized energy",
+ *  Probab. Theory Relat. Fields 162, 2015): the average of the planar potential
  *  U(z) = ∫ −log|z − y| dμ(y) of the semicircle law over the circle of radius η about (x, 0). By Newton's
  *  theorem it is ∫ −log max(|x − y|, η) dμ(y) = h(x) − ∫_{|y−x|<η} log(η/|x − y|) dμ(y); the last integral
  *  is taken by tanh–sinh quadrature with the logarithmic singularity at an endpoint (accuracy ~1e−14). */
@@ -440,7 +441,7 @@ export function torusUniformMeasure(d: number, L: number, kernel: Kernel): Equil
     support: { kind: 'whole' },
     method: 'closed-form',
     accuracy: 0,
-    source: 'uniform background of the periodic (jellium) energy: Sandier & Serfaty, Ann. Probab. 43 (2015); MATH.md §9',
+    source: 'uniform background of the periodic (jellium) energy: Sandier & Serfaty, Ann. Probab. 43 (2015); zero-mean periodic Green function by Ewald summation (Ewald, Ann. Phys. 369, 1921)',
     selfEnergy: 0,
     IV: 0,
     cV: 0,

@@ -1,4 +1,5 @@
-// Choosing the equilibrium measure μ_V of a kernel and a potential (MATH.md §3): closed forms for
+// Choosing the equilibrium measure μ_V of a kernel and a potential (Saff & Totik, Logarithmic Potentials
+// with External Fields, 1997, ch. I): closed forms for
 // V = a|x|² (closed-forms.ts), the uniform measure on the sphere and the torus, and numerical solvers
 // registered by other modules for everything else.
 import type { Geometry, Kernel } from '../types'

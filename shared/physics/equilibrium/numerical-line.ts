@@ -1,5 +1,6 @@
 // Equilibrium measure of the 1-D log kernel g(x) = −log|x| for a smooth confining V on R, supported on a
-// union of intervals [a_1, b_1] ∪ … ∪ [a_J, b_J] (MATH.md §3: h^μ + V/2 = c_V on the support, ≥ outside).
+// union of intervals [a_1, b_1] ∪ … ∪ [a_J, b_J] (Euler–Lagrange conditions h^μ + V/2 = c_V on the support,
+// ≥ outside: Saff & Totik, Logarithmic Potentials with External Fields, 1997, ch. I, with their Q = V/2).
 //
 // Method (Chebyshev collocation of the Euler–Lagrange equation with soft-edge endpoint conditions):
 //   on interval j write y = m_j + h_j s and dμ(y) = Σ_n d_{j,n} T_n(s) / √(1 − s²) dy.

@@ -1,5 +1,6 @@
 // The equilibrium measure μ_V of a kernel and a potential, and the quantities built from it
-// (MATH.md §3): h^μ(x) = ∫ g(x−y) dμ(y), I_V, c_V = ∬ g dμ dμ + ½∫V dμ, ζ = h^μ + V/2 − c_V.
+// (Saff & Totik, Logarithmic Potentials with External Fields, 1997, ch. I, with their Q = V/2):
+// h^μ(x) = ∫ g(x−y) dμ(y), I_V, c_V = ∬ g dμ dμ + ½∫V dμ, ζ = h^μ + V/2 − c_V.
 import type { Kernel } from '../types'
 
 export type Support

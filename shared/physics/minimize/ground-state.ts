@@ -1,5 +1,6 @@
 // Ground states (β = ∞): minimisers of the canonical energy H = Σ_{i≠j} g(x_i − x_j) + N Σ V(x_i)
-// (MATH.md §2) by L-BFGS (minimize/lbfgs.ts) from several seeded random starts, keeping the best.
+// (the convention of this engine) by L-BFGS (minimize/lbfgs.ts) from several seeded random starts,
+// keeping the best.
 // - Free space: the coordinates themselves.
 // - Sphere: unconstrained coordinates y_i ∈ R³ \ {0} and the objective H(y_1/|y_1|, …, y_N/|y_N|); its
 //   gradient is (I − u_i u_iᵀ)∇_{u_i}H / |y_i| with u_i = y_i/|y_i| (chain rule), so the search moves

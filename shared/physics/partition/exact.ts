@@ -1,4 +1,4 @@
-// Exact partition functions in the engine's canonical convention (MATH.md §2, §6):
+// Exact partition functions in the engine's canonical convention:
 //   H = Σ_{i≠j} −log|x_i − x_j| + N Σ_i V(x_i),  V(x) = a|x|²,  Z = ∫ e^{−βH/2} dx
 //     = ∫ Π_{i<j} |x_i − x_j|^β e^{−(β/2) N a Σ_i |x_i|²} dx.
 // Change of variables x = c y with c² = 1/(βNa) turns the weight into e^{−Σ|y_i|²/2}, and

@@ -1,5 +1,5 @@
 // Large-N expansion of log Z for log-gases in the canonical convention (weight Π_{i<j}|x_i − x_j|^β
-// e^{−(β/2) N Σ V(x_i)}, MATH.md §6), with I_V = ∬ −log|x − y| dμ_V dμ_V + ∫ V dμ_V and the entropy
+// e^{−(β/2) N Σ V(x_i)}), with I_V = ∬ −log|x − y| dμ_V dμ_V + ∫ V dμ_V and the entropy
 // Ent[μ_V] = ∫ ρ_V log ρ_V:
 //   d = 1:  log Z = −(β/2) I_V N² + (β/2) N log N + [K(β) − (1 − β/2) Ent] N + ((3 + β/2 + 2/β)/12) log N + O(1)
 //   d = 2:  log Z = −(β/2) I_V N² + (β/4) N log N − [C(β) + (1 − β/4) Ent] N + o(N)

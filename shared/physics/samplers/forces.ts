@@ -1,4 +1,4 @@
-// Gradients of the canonical energy H = Σ_{i≠j} g(x_i − x_j) + N Σ_i V(x_i) (MATH.md §2):
+// Gradients of the canonical energy H = Σ_{i≠j} g(x_i − x_j) + N Σ_i V(x_i) (the convention of this engine):
 //   ∇_{x_i} H = 2 Σ_{j≠i} ∇g(x_i − x_j) + N ∇V(x_i),
 // with ∇g(x) = φ(|x|²)·x for the radial kernels: φ(u) = −1/u for g = −log|x|, φ(u) = −s u^{−s/2−1} for
 // g = |x|^{−s} (and s = d − 2 for the Coulomb kernel) — elementary calculus. On the sphere the points

@@ -3,7 +3,8 @@
 // The eigenvalues z of an N×N matrix G of independent standard complex Gaussians (E|G_ij|² = 1) have
 // the density ∝ Π_{i<j}|z_i − z_j|² e^{−Σ|z_i|²} (Ginibre, J. Math. Phys. 6 (1965) 440); for w = z/√N
 // this is Π_{i<j}|w_i − w_j|² e^{−N Σ|w_i|²} = e^{−H(w)}: the canonical plasma at β = 2, whose
-// equilibrium measure is the uniform law on the unit disk (the circular law; MATH.md §6–§7).
+// equilibrium measure is the uniform law on the unit disk (the circular law; Saff & Totik, Logarithmic
+// Potentials with External Fields, 1997, ch. IV; Forrester, Log-gases and Random Matrices, 2010, ch. 1).
 //
 // Hessenberg model. Reduce G to upper-Hessenberg form by Householder reflections, column by column
 // (Golub & Van Loan, Matrix Computations, 4th ed., §7.4). The first reflection maps the N − 1

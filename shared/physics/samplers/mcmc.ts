@@ -1,5 +1,5 @@
 // Markov chain Monte Carlo for the canonical Gibbs measure P ∝ e^{−(β/2) H}, H = Σ_{i≠j} g(x_i − x_j)
-// + N Σ V(x_i) (MATH.md §2, §6), for any β > 0, kernel, potential and geometry.
+// + N Σ V(x_i) (the convention of this engine), for any β > 0, kernel, potential and geometry.
 // One sweep updates the points one after the other (a Metropolis-within-Gibbs scan); the energy change of
 // moving point i, ΔH = 2 Σ_{j≠i} [g(y − x_j) − g(x_i − x_j)] + N [V(y) − V(x_i)], costs O(N).
 // - Metropolis (Metropolis, Rosenbluth, Rosenbluth, Teller & Teller, J. Chem. Phys. 21, 1953):

@@ -5,7 +5,7 @@
 // surface-law growth of hyperuniform systems). References: Poisson process, Σ² = E[n] (Illian et al.
 // 2008, §2.4); the infinite Ginibre process of density 1/π (the 2-D plasma at β = 2),
 //   Σ²(R) = R² e^{−2R²} [I₀(2R²) + I₁(2R²)]
-// (MATH.md §8; Shirai, J. Stat. Phys. 123, 2006 — reference recalled from memory), for density ρ with R
+// (Shirai, J. Stat. Phys. 123, 2006 — reference recalled from memory), for density ρ with R
 // replaced by R√(πρ);
 // e^{−x} I_n(x) = (1/π) ∫_0^π e^{x(cos θ − 1)} cos(nθ) dθ (Abramowitz & Stegun 1964, 9.6.19) by the
 // trapezoidal rule, exponentially accurate for this periodic integrand.

@@ -9,7 +9,7 @@
 // The self-image constant c₀(Λ) = lim_{x→0} (G(x) − g(x)) is the same sum over p ≠ 0 plus the
 // limit of ψ_α − g at 0: −2√(α/π) in 3-D, −(γ + log α)/2 in 2-D.
 //
-// Energy of charges q_i at x_i (canonical convention: every ordered pair counted, MATH.md §9):
+// Energy of charges q_i at x_i (the canonical convention of this engine: every ordered pair counted):
 //   E_q = Σ_{i≠j} q_i q_j G(x_i − x_j) + c₀ Σ_i q_i²,
 // i.e. each charge interacts with all other charges, with all periodic images (its own included)
 // and with a uniform background of total charge −Σ_j q_j spread over the cell. With q_i = 1 this

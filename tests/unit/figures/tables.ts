@@ -21,7 +21,7 @@ export function spacingTable(): ResultTable {
   const w = 0.25
   for (let b = 0; b < 12; b++) {
     const s = (b + 0.5) * w
-    // bins filled with the β = 2 Wigner surmise (MATH.md §8; Mehta 2004), synthetic data
+    // bins filled with the β = 2 Wigner surmise (Mehta 2004), synthetic data
     const d = (32 / (Math.PI * Math.PI)) * s * s * Math.exp((-4 * s * s) / Math.PI)
     rows.push({ s, sLow: b * w, sHigh: (b + 1) * w, density: d, error: 0.02, lower: d - 0.02, upper: d + 0.02, count: 10 })
   }
@@ -70,7 +70,7 @@ export function densityTable(): ResultTable {
   const rows: ResultTable['rows'] = []
   for (let i = 0; i < 10; i++) {
     const x = -1.8 + 0.4 * i
-    // semicircle density √(4 − x²)/(2π) (Wigner; MATH.md §3), with a 2% excess as the 'empirical' values
+    // semicircle density √(4 − x²)/(2π) (Wigner; Saff & Totik 1997, ch. IV), with a 2% excess as the 'empirical' values
     const eq = Math.sqrt(Math.max(0, 4 - x * x)) / (2 * Math.PI)
     rows.push({ x, density: eq * 1.02, error: 0.005, lower: eq * 1.02 - 0.005, upper: eq * 1.02 + 0.005, equilibrium: eq })
   }

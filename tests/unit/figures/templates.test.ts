@@ -55,7 +55,7 @@ describe('energy per point against N with the fitted expansion', () => {
 })
 
 describe('spacing histogram against the Wigner surmise', () => {
-  it('carries the surmise curve from the formulas of MATH.md §8 (Mehta 2004)', () => {
+  it('carries the surmise curve from the formulas of Mehta, Random Matrices (2004)', () => {
     const spec = spacingSurmiseFigure([spacingTable()], { beta: 2 })
     const curve = seriesRows(spec, 'Wigner surmise β = 2')
     const at1 = curve.find(r => r.s === 1)
@@ -92,7 +92,7 @@ describe('spacing histogram against the Wigner surmise', () => {
 describe('pair correlation against a reference', () => {
   it('computes 1 − exp(−πρr²) for β = 2 when the table has no reference column', async () => {
     const spec = pairCorrelationFigure([pairTable(false)], { beta: 2, density: 0.5 })
-    // β = 2 bulk reference g(r) = 1 − exp(−πρr²) (MATH.md §8; Ginibre 1965), recomputed here.
+    // β = 2 bulk reference g(r) = 1 − exp(−πρr²) (Ginibre 1965), recomputed here.
     const ref = seriesRows(spec, 'β = 2: 1 − exp(−πρr²), ρ = 0.5')
     expect(ref.length).toBeGreaterThan(50)
     for (const r of ref) expect(r.g).toBeCloseTo(1 - Math.exp(-Math.PI * 0.5 * (r.r as number) ** 2), 14)
@@ -113,7 +113,7 @@ describe('structure factor on log axes', () => {
   it('drops rows that a log axis cannot show and draws the small-k law', async () => {
     const spec = structureFactorFigure([structureTable()], { coupling: 2, density: 1 })
     expect(built(spec).usermeta.dropped).toBe(1)
-    // Stillinger–Lovett small-k law S(k) ≈ k²/(2πΓn) (MATH.md §8), Γ = 2, n = 1.
+    // Stillinger–Lovett small-k law S(k) ≈ k²/(2πΓn) (Stillinger & Lovett, J. Chem. Phys. 49, 1968), Γ = 2, n = 1.
     for (const r of seriesRows(spec, 'k²/(2πΓn), Γ = 2')) expect(r.S).toBeCloseTo(((r.k as number) ** 2) / (4 * Math.PI), 14)
     const { vega } = compileFigureSpec(spec)
     const types = (vega.scales ?? []).filter(s => s.name === 'x' || s.name === 'y').map(s => s.type)

@@ -4,7 +4,7 @@ import { integrateAdaptive } from '../../../shared/physics/quadrature'
 
 describe('Wigner surmise', () => {
   it('p₂(1) = (32/π²) e^{−4/π}', () => {
-    // MATH.md §8; Mehta, Random Matrices (2004), p₂(s) = (32/π²) s² e^{−4s²/π} at s = 1.
+    // Mehta, Random Matrices (2004), p₂(s) = (32/π²) s² e^{−4s²/π} at s = 1.
     expect(wignerSurmise(2, 1)).toBeCloseTo((32 / Math.PI ** 2) * Math.exp(-4 / Math.PI), 15)
   })
 

@@ -36,7 +36,7 @@ function exponent(conv: EnergyConvention, beta: number, H: number, N: number, d:
 }
 
 describe('convention records', () => {
-  it('has the canonical record of MATH.md §2', () => {
+  it('has the canonical record of this engine (Σ_{i≠j} g + N Σ V, −log, e^{−βH/2})', () => {
     expect(CANONICAL_CONVENTION).toEqual({ pairs: 'full', fieldScale: 'N', logSign: 'minus-log', gibbs: 'beta/2' })
   })
 

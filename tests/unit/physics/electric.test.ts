@@ -227,7 +227,7 @@ describe('electric energy and the lower bound for F_N', () => {
       expect(Math.abs(gap - expected)).toBeLessThan(1e-9 * Math.max(1, Math.abs(FN)))
     }
   })
-  it('constant density: h^μ(x) − ⟨h^μ⟩_{∂B(x,η)} = c_d m η²/(2d), so value − lowerBound = Σ g(η_i) + 2N Σ c_d m η_i²/(2d) (MATH.md §5)', () => {
+  it('constant density: h^μ(x) − ⟨h^μ⟩_{∂B(x,η)} = c_d m η²/(2d), so value − lowerBound = Σ g(η_i) + 2N Σ c_d m η_i²/(2d) (h^μ is quadratic there, Δh^μ = −c_d m: elementary)', () => {
     const rand = seeded(23)
     for (const { d, R } of [{ d: 2, R: 1.3 }, { d: 3, R: 0.8 }]) {
       const measure = d === 2 ? uniformDisk(R) : uniformBall(R)

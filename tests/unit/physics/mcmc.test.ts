@@ -144,7 +144,8 @@ describe('MCMC on the sphere and the torus', () => {
   })
 
   it('two points on the unit square torus (2-D log, Ewald): E[H_T] by quadrature of e^{−βG}', () => {
-    // H_T = 2G(x₁ − x₂) + 2c₀ (MATH.md §9); the difference is uniform on the cell with weight e^{−(β/2)·2G} = e^{−βG}
+    // H_T = Σ_{i≠j} G + N c₀ = 2G(x₁ − x₂) + 2c₀ (the canonical torus energy of this engine);
+    // the difference is uniform on the cell with weight e^{−(β/2)·2G} = e^{−βG}
     const beta = 2
     const lattice = cubicLattice(2, 1)
     const n = 40

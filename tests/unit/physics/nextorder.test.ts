@@ -11,7 +11,7 @@ import { quadraticPotential } from '../../../shared/physics/potentials/presets'
 const quadratic = quadraticPotential
 
 describe('next-order energy', () => {
-  it('one point at the centre of the disk: F_1 = −2 h(0) + ∬ = −1 + ¼ (a = 1, MATH.md §3)', () => {
+  it('one point at the centre of the disk: F_1 = −2 h(0) + ∬ = −1 + ¼ (a = 1, uniform disk; Saff & Totik 1997, ch. IV)', () => {
     const conf: Configuration = { N: 1, d: 2, points: Float64Array.from([0, 0]) }
     const res = nextOrderEnergy(conf, { kernel: { name: 'log' }, geometry: { kind: 'free', d: 2 }, potential: quadratic(1, 2) })
     expect(res.nextOrder).toBeCloseTo(-0.75, 15)
