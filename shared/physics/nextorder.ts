@@ -5,8 +5,8 @@
 // whose residual is reported as a consistency check. The normalised next-order energy, bounded in N:
 //   log kernels: (F_N + (N/d) log N)/N (d = 1 on the line, 2 in the plane and on S²);
 //   Coulomb and Riesz |x|^(−s), s < d: F_N / N^(1+s/d) (= N^(2−2/d) for Coulomb, s = d − 2).
-// Sources: Sandier & Serfaty, "1D log gases and the renormalized energy", Ann. Probab. 43 (2015);
-// Petrache & Serfaty,
+// Sources: Sandier & Serfaty, "2D Coulomb gases and the renormalized energy", Ann. Probab. 43 (2015),
+// and "1D log gases and the renormalized energy", Probab. Theory Relat. Fields 162 (2015); Petrache & Serfaty,
 // "Next order asymptotics and renormalized energy for Riesz interactions", J. Inst. Math. Jussieu 16 (2017).
 import type { Configuration, Geometry, Kernel } from './types'
 import type { Potential } from './potentials/types'
