@@ -229,6 +229,44 @@ function productsFlush(): void {
   productsReset()
 }
 
+/** logFourRows with the accumulator and the carried products put back as they were when it fails
+ *  (the caller then takes the careful path for these rows). */
+function fastFourRows(px: usize, py: usize, pz: usize, n: i32, i: i32, j0: i32, threeD: bool): bool {
+  const s = accS
+  const c = accC
+  const q0 = gp0
+  const q1 = gp1
+  const q2 = gp2
+  const q3 = gp3
+  const qt = gTail
+  if (logFourRows(px, py, pz, n, i, j0, threeD)) return true
+  accS = s
+  accC = c
+  gp0 = q0
+  gp1 = q1
+  gp2 = q2
+  gp3 = q3
+  gTail = qt
+  return false
+}
+
+// the total of a call: the accumulator of each group of rows is added with compensation
+let totS: f64 = 0
+let totC: f64 = 0
+
+function totalReset(): void {
+  totS = 0
+  totC = 0
+}
+
+function foldGroup(): void {
+  const t = totS + accS
+  if (Math.abs(totS) >= Math.abs(accS)) totC += (totS - t) + accS
+  else totC += (accS - t) + totS
+  totS = t
+  totC += accC
+}
+
 /** The largest coordinate size, to decide whether the fast path is safe. */
 function maxAbs(px: usize, py: usize, pz: usize, n: i32): f64 {
   let m: f64 = 0
@@ -241,8 +279,7 @@ function maxAbs(px: usize, py: usize, pz: usize, n: i32): f64 {
 function logRows(px: usize, py: usize, pz: usize, n: i32, i0: i32, i1: i32, threeD: bool): f64 {
   badI = -1
   badJ = -1
-  let total: f64 = 0
-  let totalC: f64 = 0
+  totalReset()
   const fast = maxAbs(px, py, pz, n) < SAFE_COORD
   productsReset()
   let i = i0
@@ -250,50 +287,15 @@ function logRows(px: usize, py: usize, pz: usize, n: i32, i0: i32, i1: i32, thre
     accReset()
     // the small triangle inside the four rows, then the four rows against j ≥ i + 4
     let ok = logRowsCarefulRange(px, py, pz, i, i + 4)
-    if (ok && i + 4 < n) {
-      if (!fast) {
-        ok = logRowsCareful4(px, py, pz, n, i)
-      }
-      else {
-        const s = accS
-        const c = accC
-        const q0 = gp0
-        const q1 = gp1
-        const q2 = gp2
-        const q3 = gp3
-        const qt = gTail
-        if (!logFourRows(px, py, pz, n, i, i + 4, threeD)) {
-          accS = s
-          accC = c
-          gp0 = q0
-          gp1 = q1
-          gp2 = q2
-          gp3 = q3
-          gTail = qt
-          ok = logRowsCareful4(px, py, pz, n, i)
-        }
-      }
-    }
+    if (ok && i + 4 < n && !(fast && fastFourRows(px, py, pz, n, i, i + 4, threeD))) ok = logRowsCareful4(px, py, pz, n, i)
     if (!ok) return NaN
-    const t = total + accS
-    if (Math.abs(total) >= Math.abs(accS)) totalC += (total - t) + accS
-    else totalC += (accS - t) + total
-    total = t
-    totalC += accC
+    foldGroup()
   }
   accReset()
   productsFlush()
-  if (i < i1) {
-    if (!logRowsCareful(px, py, pz, n, i, i1)) return NaN
-  }
-  {
-    const t = total + accS
-    if (Math.abs(total) >= Math.abs(accS)) totalC += (total - t) + accS
-    else totalC += (accS - t) + total
-    total = t
-    totalC += accC
-  }
-  return total + totalC
+  if (i < i1 && !logRowsCareful(px, py, pz, n, i, i1)) return NaN
+  foldGroup()
+  return totS + totC
 }
 
 /** Pairs i ≤ a < b < i1 inside a group of rows, scalar. */
@@ -630,8 +632,7 @@ export function blockLog2(px: usize, py: usize, pz: usize, a0: i32, a1: i32, b0:
   badI = -1
   badJ = -1
   const same = a0 == b0
-  let total: f64 = 0
-  let totalC: f64 = 0
+  totalReset()
   productsReset()
   let i = a0
   for (; i + 4 <= a1; i += 4) {
@@ -642,45 +643,19 @@ export function blockLog2(px: usize, py: usize, pz: usize, a0: i32, a1: i32, b0:
       ok = logRowsCarefulRange(px, py, pz, i, i + 4)
       j0 = i + 4
     }
-    if (ok && j0 < b1) {
-      const s = accS
-      const c = accC
-      const q0 = gp0
-      const q1 = gp1
-      const q2 = gp2
-      const q3 = gp3
-      const qt = gTail
-      if (!logFourRows(px, py, pz, b1, i, j0, false)) {
-        accS = s
-        accC = c
-        gp0 = q0
-        gp1 = q1
-        gp2 = q2
-        gp3 = q3
-        gTail = qt
-        for (let r = i; ok && r < i + 4; r++) ok = logRowCareful(px, py, pz, r, j0, b1)
-      }
+    if (ok && j0 < b1 && !fastFourRows(px, py, pz, b1, i, j0, false)) {
+      for (let r = i; ok && r < i + 4; r++) ok = logRowCareful(px, py, pz, r, j0, b1)
     }
     if (!ok) return NaN
-    const t = total + accS
-    if (Math.abs(total) >= Math.abs(accS)) totalC += (total - t) + accS
-    else totalC += (accS - t) + total
-    total = t
-    totalC += accC
+    foldGroup()
   }
   accReset()
   productsFlush()
   for (let r = i; r < a1; r++) {
     if (!logRowCareful(px, py, pz, r, same ? r + 1 : b0, b1)) return NaN
   }
-  {
-    const t = total + accS
-    if (Math.abs(total) >= Math.abs(accS)) totalC += (total - t) + accS
-    else totalC += (accS - t) + total
-    total = t
-    totalC += accC
-  }
-  return total + totalC
+  foldGroup()
+  return totS + totC
 }
 
 /** Σ_{a0 ≤ i < a1} Σ_{b0 ≤ j < b1, j > i when the ranges are equal} 1/|x_i − x_j| in R³ (the near field
