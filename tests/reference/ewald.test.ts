@@ -122,6 +122,44 @@ describe('Ewald sums: independence of α, scaling and replication', () => {
   })
 })
 
+describe('Ewald sums with a cell list in real space', () => {
+  it('H_T/N = c₀ for a 12 × 12 replicated square lattice and 5 × 5 × 5 cubic lattice, found by the cell list', () => {
+    // large α so that the real-space cut-off spans few cells (the cell list applies)
+    const pts2: number[] = []
+    for (let i = 0; i < 12; i++) for (let j = 0; j < 12; j++) pts2.push(i + 0.25, j + 0.5)
+    const r2 = torusEnergy(cubicLattice(2, 12), Float64Array.from(pts2), { alpha: 20 })
+    expect(r2.parameters.realSpace).toBe('cells')
+    expect(Math.abs(r2.value / 144 - selfImageConstant(cubicLattice(2, 1)).value)).toBeLessThan(1e-11)
+    const pts3: number[] = []
+    for (let i = 0; i < 5; i++) for (let j = 0; j < 5; j++) for (let l = 0; l < 5; l++) pts3.push(i, j, l + 0.1)
+    const r3 = torusEnergy(cubicLattice(3, 5), Float64Array.from(pts3), { alpha: 40 })
+    expect(r3.parameters.realSpace).toBe('cells')
+    expect(Math.abs(r3.value / 125 - selfImageConstant(cubicLattice(3, 1)).value)).toBeLessThan(1e-11)
+  })
+  it('random points on square, triangular and cubic cells: the cell list agrees with every pair (α-independence, 1e−10)', () => {
+    const rand = seeded(47)
+    const cases = [[cubicLattice(2, 3.1), 2, 5, [60, 200]], [triangularLattice(9), 2, 5, [60, 200]], [cubicLattice(3, 2.3), 3, 4, [130, 170]]] as const
+    for (const [lattice, d, small, large] of cases) {
+      const N = 200
+      // coordinates outside the cell on purpose: the energy is periodic
+      const pts = Float64Array.from({ length: N * d }, () => 5 * rand() - 1)
+      const pairs = torusEnergy(lattice, pts, { alpha: small })
+      expect(pairs.parameters.realSpace).toBe('pairs')
+      for (const alpha of large) {
+        const cells = torusEnergy(lattice, pts, { alpha })
+        expect(cells.parameters.realSpace).toBe('cells')
+        expect(rel(cells.value, pairs.value)).toBeLessThan(1e-10)
+      }
+    }
+  })
+  it('names coincident points found through the cell list, also across the cell faces', () => {
+    const pts = Float64Array.from({ length: 2 * 100 }, (_, k) => ((k * 0.6180339887) % 1) * 10)
+    pts[2 * 71] = pts[2 * 12] + 10
+    pts[2 * 71 + 1] = pts[2 * 12 + 1]
+    expect(() => torusEnergy(cubicLattice(2, 10), pts, { alpha: 40 })).toThrow(/points 12 and 71 coincide/)
+  })
+})
+
 describe('the periodic Green function', () => {
   const lat = triangularLattice(1.3)
   const dual = dualBasis(lat)
