@@ -80,27 +80,35 @@ function flag(i: i32, j: i32): f64 {
 
 // ---------------------------------------------------------------- log energies
 
-/** Careful scalar path for the rows [i0, i1), all j > i: adds Σ log r² into the accumulator. */
+/** Careful scalar path for row r against the columns [j0, j1): Σ log r² into the accumulator, by a
+ *  running product checked after every factor (a lone factor outside [1e−150, 1e150] is logged by
+ *  itself); false, with the pair recorded, at a zero distance. */
+function logRowCareful(px: usize, py: usize, pz: usize, r: i32, j0: i32, j1: i32): bool {
+  let prod: f64 = 1
+  for (let j = j0; j < j1; j++) {
+    const r2 = r2At(px, py, pz, r, j)
+    if (r2 == 0) {
+      flag(r, j)
+      return false
+    }
+    if (r2 < LOW || r2 > HIGH) {
+      accAdd(Math.log(r2))
+      continue
+    }
+    prod *= r2
+    if (prod < LOW || prod > HIGH) {
+      accAdd(Math.log(prod))
+      prod = 1
+    }
+  }
+  if (prod != 1) accAdd(Math.log(prod))
+  return true
+}
+
+/** Careful scalar path for the rows [i0, i1), all j > i. */
 function logRowsCareful(px: usize, py: usize, pz: usize, n: i32, i0: i32, i1: i32): bool {
   for (let i = i0; i < i1; i++) {
-    let prod: f64 = 1
-    for (let j = i + 1; j < n; j++) {
-      const r2 = r2At(px, py, pz, i, j)
-      if (r2 == 0) {
-        flag(i, j)
-        return false
-      }
-      if (r2 < LOW || r2 > HIGH) {
-        accAdd(Math.log(r2))
-        continue
-      }
-      prod *= r2
-      if (prod < LOW || prod > HIGH) {
-        accAdd(Math.log(prod))
-        prod = 1
-      }
-    }
-    if (prod != 1) accAdd(Math.log(prod))
+    if (!logRowCareful(px, py, pz, i, i + 1, n)) return false
   }
   return true
 }
@@ -316,24 +324,7 @@ function logRowsCarefulRange(px: usize, py: usize, pz: usize, i0: i32, i1: i32):
 /** Four rows i..i+3 against j ≥ i + 4, scalar careful path. */
 function logRowsCareful4(px: usize, py: usize, pz: usize, n: i32, i: i32): bool {
   for (let a = i; a < i + 4; a++) {
-    let prod: f64 = 1
-    for (let j = i + 4; j < n; j++) {
-      const r2 = r2At(px, py, pz, a, j)
-      if (r2 == 0) {
-        flag(a, j)
-        return false
-      }
-      if (r2 < LOW || r2 > HIGH) {
-        accAdd(Math.log(r2))
-        continue
-      }
-      prod *= r2
-      if (prod < LOW || prod > HIGH) {
-        accAdd(Math.log(prod))
-        prod = 1
-      }
-    }
-    if (prod != 1) accAdd(Math.log(prod))
+    if (!logRowCareful(px, py, pz, a, i + 4, n)) return false
   }
   return true
 }
@@ -599,29 +590,6 @@ export function fieldCoulomb3(px: usize, py: usize, pz: usize, n: i32, i0: i32, 
 }
 
 // ---------------------------------------------------------------- rectangular blocks
-
-/** Row r against the columns [j0, j1), scalar careful path (products as in logRowsCareful). */
-function logRowCareful(px: usize, py: usize, pz: usize, r: i32, j0: i32, j1: i32): bool {
-  let prod: f64 = 1
-  for (let j = j0; j < j1; j++) {
-    const r2 = r2At(px, py, pz, r, j)
-    if (r2 == 0) {
-      flag(r, j)
-      return false
-    }
-    if (r2 < LOW || r2 > HIGH) {
-      accAdd(Math.log(r2))
-      continue
-    }
-    prod *= r2
-    if (prod < LOW || prod > HIGH) {
-      accAdd(Math.log(prod))
-      prod = 1
-    }
-  }
-  if (prod != 1) accAdd(Math.log(prod))
-  return true
-}
 
 /** Σ_{a0 ≤ i < a1} Σ_{b0 ≤ j < b1, j > i when the ranges are equal} log|x_i − x_j|² (the near field of
  *  a tree method; the ranges are equal or disjoint; coordinates below 1e34; pz holds zeros in the
