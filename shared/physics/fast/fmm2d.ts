@@ -178,74 +178,16 @@ function nearKernels(tree: PointTree): PairKernels | undefined {
   return kernels
 }
 
-/** Multipole coefficients ã_k (k = 1..p) of every node, re/im interleaved per node, p + 1 slots. */
+/** Multipole coefficients of every node, p + 1 slots: ã_k = −σ_k/k (k = 1..p) and n in slot 0. */
 function upwardPass(tree: PointTree, p: number, C: Float64Array[]): { re: Float64Array, im: Float64Array } {
-  const M = tree.start.length
-  const re = new Float64Array(M * (p + 1))
-  const im = new Float64Array(M * (p + 1))
-  const P = tree.sorted
-  for (let node = M - 1; node >= 0; node--) {
-    const o = node * (p + 1)
-    const cx = tree.centre[2 * node]
-    const cy = tree.centre[2 * node + 1]
-    const R = tree.half[node]
-    re[o] = tree.end[node] - tree.start[node]
-    const ch = tree.children[node]
-    if (ch.length === 0) {
-      for (let j = tree.start[node]; j < tree.end[node]; j++) {
-        const wx = (P[2 * j] - cx) / R
-        const wy = (P[2 * j + 1] - cy) / R
-        let tr = 1
-        let ti = 0
-        for (let k = 1; k <= p; k++) {
-          const nr = tr * wx - ti * wy
-          ti = tr * wy + ti * wx
-          tr = nr
-          re[o + k] -= tr / k
-          im[o + k] -= ti / k
-        }
-      }
-      continue
-    }
-    // M2M: b̃_l = −a₀ t^l / l + Σ_{k=1}^{l} ã_k ρ^k t^(l−k) C(l−1, k−1),  t = (c_child − c)/R, ρ = R_child/R
-    const tp = new Float64Array(2 * (p + 1))
-    for (const c of ch) {
-      const oc = c * (p + 1)
-      const tx = (tree.centre[2 * c] - cx) / R
-      const ty = (tree.centre[2 * c + 1] - cy) / R
-      const rho = tree.half[c] / R
-      tp[0] = 1
-      tp[1] = 0
-      for (let l = 1; l <= p; l++) {
-        tp[2 * l] = tp[2 * l - 2] * tx - tp[2 * l - 1] * ty
-        tp[2 * l + 1] = tp[2 * l - 2] * ty + tp[2 * l - 1] * tx
-      }
-      const a0 = re[oc]
-      let rk = 1
-      const sr = new Float64Array(p + 1)
-      const si = new Float64Array(p + 1)
-      for (let k = 1; k <= p; k++) {
-        rk *= rho
-        sr[k] = re[oc + k] * rk
-        si[k] = im[oc + k] * rk
-      }
-      for (let l = 1; l <= p; l++) {
-        let ar = -a0 * tp[2 * l] / l
-        let ai = -a0 * tp[2 * l + 1] / l
-        const Cl = C[l - 1]
-        for (let k = 1; k <= l; k++) {
-          const b = Cl[k - 1]
-          const xr = tp[2 * (l - k)]
-          const xi = tp[2 * (l - k) + 1]
-          ar += b * (sr[k] * xr - si[k] * xi)
-          ai += b * (sr[k] * xi + si[k] * xr)
-        }
-        re[o + l] += ar
-        im[o + l] += ai
-      }
+  const { sr, si } = momentPass(tree, p, C)
+  for (let o = 0; o < sr.length; o += p + 1) {
+    for (let k = 1; k <= p; k++) {
+      sr[o + k] /= -k
+      si[o + k] /= -k
     }
   }
-  return { re, im }
+  return { re: sr, im: si }
 }
 
 /** Node moments σ_X[k] = Σ_{j∈X} ((z_j − c_X)/R_X)^k, k = 0..p (σ[0] = n_X), p + 1 slots per node:
