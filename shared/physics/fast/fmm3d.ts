@@ -213,25 +213,29 @@ interface Run {
   nearPairs: number
 }
 
-function run(points: Float64Array, P: number, theta: number, leaf: number, forces: boolean): Run {
-  const N = points.length / 3
-  const tree = buildTree(points, 3, leaf)
-  const lists = interactionLists(tree, theta)
-  const X = tree.sorted
-  const T = tables(P)
+/** Moments M_k = Σ_{j∈A} (c_A − x_j)^k, |k| ≤ P, of the cells marked in `needed` (all cells when
+ *  omitted), nodes·count numbers: from the points (P2M) where that is cheaper than shifting the
+ *  children's (n·count(P) against children·C(P + 6, 6) operations) and at the leaves, else by M2M. */
+function cellMoments(tree: PointTree, T: Tables, needed?: Uint8Array): Float64Array {
   const C = T.count
   const nodes = tree.start.length
-  const M = new Float64Array(nodes * C)
-  const L = new Float64Array(nodes * C)
-  const mono = new Float64Array(C)
   const { centre, children } = tree
-  // P2M at the leaves, M2M upwards (children have larger indices than their parent)
+  const X = tree.sorted
+  const M = new Float64Array(nodes * C)
+  const mono = new Float64Array(C)
+  const want = needed ? Uint8Array.from(needed) : new Uint8Array(nodes).fill(1)
+  const fromPoints = (a: number): boolean => children[a].length === 0 || (tree.end[a] - tree.start[a]) * C <= children[a].length * T.shK.length
+  // a cell shifted from its children needs theirs (parents have smaller indices than children)
+  for (let a = 1; a < nodes; a++) {
+    if (want[tree.parent[a]] && !fromPoints(tree.parent[a])) want[a] = 1
+  }
   for (let a = nodes - 1; a >= 0; a--) {
+    if (!want[a]) continue
     const o = a * C
     const cx = centre[3 * a]
     const cy = centre[3 * a + 1]
     const cz = centre[3 * a + 2]
-    if (children[a].length === 0) {
+    if (fromPoints(a)) {
       for (let j = tree.start[a]; j < tree.end[a]; j++) {
         monomials(T, cx - X[3 * j], cy - X[3 * j + 1], cz - X[3 * j + 2], mono)
         for (let i = 0; i < C; i++) M[o + i] += mono[i]
@@ -244,6 +248,21 @@ function run(points: Float64Array, P: number, theta: number, leaf: number, force
       for (let q = 0; q < T.shK.length; q++) M[o + T.shK[q]] += T.shC[q] * mono[T.shD[q]] * M[oc + T.shM[q]]
     }
   }
+  return M
+}
+
+function run(points: Float64Array, P: number, theta: number, leaf: number, forces: boolean): Run {
+  const N = points.length / 3
+  const tree = buildTree(points, 3, leaf)
+  const lists = interactionLists(tree, theta)
+  const X = tree.sorted
+  const T = tables(P)
+  const C = T.count
+  const nodes = tree.start.length
+  const M = cellMoments(tree, T)
+  const L = new Float64Array(nodes * C)
+  const mono = new Float64Array(C)
+  const { centre, children } = tree
   // M2L for every far pair, both directions: a_m(−R) = (−1)^|m| a_m(R)
   const rec = recurrence(multiIndices(P), false, 1)
   const a = new Float64Array(C + 1)
@@ -451,7 +470,7 @@ interface EnergyRun {
 function energyRun(points: Float64Array, tolerance: number, theta: number, leaf: number, fixedOrder: number | undefined, farDirectUpTo: number | undefined): EnergyRun {
   const tree = buildTree(points, 3, leaf)
   const lists = interactionLists(tree, theta)
-  const { centre, children } = tree
+  const { centre } = tree
   const kernels = wasmSimdAvailable() ? new PairKernels() : undefined
   kernels?.load(tree.sorted, 3)
   const near = nearCoulomb(tree, lists.nearA, lists.nearB, kernels)
@@ -504,39 +523,13 @@ function energyRun(points: Float64Array, tolerance: number, theta: number, leaf:
     const E = energyTable(P)
     const C = T.count
     const nodes = tree.start.length
-    const X = tree.sorted
-    // moments only where a far pair needs them: from the points (P2M) where that is cheaper than
-    // shifting the children's (n·count(P) against children·C(P + 6, 6) operations), else by M2M
-    const M = new Float64Array(nodes * C)
-    const mono = new Float64Array(C)
+    // moments only where a far pair needs them
     const needed = new Uint8Array(nodes)
     for (const f of expanded) {
       needed[lists.farA[f]] = 1
       needed[lists.farB[f]] = 1
     }
-    const fromPoints = (a: number): boolean => children[a].length === 0 || (tree.end[a] - tree.start[a]) * C <= children[a].length * T.shK.length
-    for (let a = 1; a < nodes; a++) {
-      if (needed[tree.parent[a]] && !fromPoints(tree.parent[a])) needed[a] = 1
-    }
-    for (let a = nodes - 1; a >= 0; a--) {
-      if (!needed[a]) continue
-      const o = a * C
-      const cx = centre[3 * a]
-      const cy = centre[3 * a + 1]
-      const cz = centre[3 * a + 2]
-      if (fromPoints(a)) {
-        for (let j = tree.start[a]; j < tree.end[a]; j++) {
-          monomials(T, cx - X[3 * j], cy - X[3 * j + 1], cz - X[3 * j + 2], mono)
-          for (let i = 0; i < C; i++) M[o + i] += mono[i]
-        }
-        continue
-      }
-      for (const c of children[a]) {
-        monomials(T, cx - centre[3 * c], cy - centre[3 * c + 1], cz - centre[3 * c + 2], mono)
-        const oc = c * C
-        for (let q = 0; q < T.shK.length; q++) M[o + T.shK[q]] += T.shC[q] * mono[T.shD[q]] * M[oc + T.shM[q]]
-      }
-    }
+    const M = cellMoments(tree, T, needed)
     // U_n = (−1)^|n| M_n
     const U = new Float64Array(M.length)
     for (let a = 0; a < nodes; a++) {
