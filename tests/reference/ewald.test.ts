@@ -123,7 +123,7 @@ describe('Ewald sums: independence of α, scaling and replication', () => {
 })
 
 describe('Ewald sums with a cell list in real space', () => {
-  it('H_T/N = c₀ for a 12 × 12 replicated square lattice and 5 × 5 × 5 cubic lattice, found by the cell list', () => {
+  it('H_T/N = c₀ for a 12 × 12 replicated square lattice and 5 × 5 × 5 cubic lattice, found by the cell list (replication identity: common practice; c₀ itself is checked against Kronecker’s limit formula above)', () => {
     // large α so that the real-space cut-off spans few cells (the cell list applies)
     const pts2: number[] = []
     for (let i = 0; i < 12; i++) for (let j = 0; j < 12; j++) pts2.push(i + 0.25, j + 0.5)

@@ -307,55 +307,54 @@ function realPairsByCells(setup: Setup, lattice: Lattice, points: ArrayLike<numb
   const fill = start.slice(0, cells)
   const order = new Int32Array(N)
   for (let i = 0; i < N; i++) order[fill[cellOf[i]]++] = i
-  const rc2 = rc * rc
-  const psi = setup.psi
-  const shift = [0, 0, 0]
   const total = new CompensatedSum()
-  const lo = [-1, -1, d > 2 ? -1 : 0]
-  const hi = [1, 1, d > 2 ? 1 : 0]
-  for (let cz = 0; cz < n[2]; cz++) {
-    for (let cy = 0; cy < n[1]; cy++) {
-      for (let cx = 0; cx < n[0]; cx++) {
-        const home = (cz * n[1] + cy) * n[0] + cx
-        if (start[home] === start[home + 1]) continue
-        for (let oz = lo[2]; oz <= hi[2]; oz++) {
-          for (let oy = lo[1]; oy <= hi[1]; oy++) {
-            for (let ox = lo[0]; ox <= hi[0]; ox++) {
-              const u = [cx + ox, cy + oy, cz + oz]
-              shift.fill(0)
-              for (let k = 0; k < d; k++) {
-                const w = u[k] < 0 ? -1 : u[k] >= n[k] ? 1 : 0
-                u[k] -= w * n[k]
-                for (let c = 0; c < d; c++) shift[c] += w * b[k * d + c]
-              }
-              const other = (u[2] * n[1] + u[1]) * n[0] + u[0]
-              let sum = 0
-              for (let a = start[home]; a < start[home + 1]; a++) {
-                const i = order[a]
-                const qi = charges ? charges[i] : 1
-                const xi = pos[3 * i] - shift[0]
-                const yi = pos[3 * i + 1] - shift[1]
-                const zi = pos[3 * i + 2] - shift[2]
-                for (let e = start[other]; e < start[other + 1]; e++) {
-                  const j = order[e]
-                  if (j === i) continue
-                  const dx = xi - pos[3 * j]
-                  const dy = yi - pos[3 * j + 1]
-                  const dz = zi - pos[3 * j + 2]
-                  const r2 = dx * dx + dy * dy + dz * dz
-                  if (r2 >= rc2) continue
-                  if (r2 === 0) throw new EngineInputError(`points ${Math.min(i, j)} and ${Math.max(i, j)} coincide on the torus`, { indices: [Math.min(i, j), Math.max(i, j)] })
-                  sum += qi * (charges ? charges[j] : 1) * psi(Math.sqrt(r2))
-                }
-              }
-              total.add(sum)
-            }
-          }
-        }
+  // the 3^d neighbouring cells of every cell, with the translation taking a neighbour across a face
+  const offsets = d === 3 ? 27 : 9
+  const cellIndex = [0, 0, 0]
+  const u = [0, 0, 0]
+  const shift = [0, 0, 0]
+  for (let home = 0; home < cells; home++) {
+    if (start[home] === start[home + 1]) continue
+    cellIndex[0] = home % n[0]
+    cellIndex[1] = Math.floor(home / n[0]) % n[1]
+    cellIndex[2] = Math.floor(home / (n[0] * n[1]))
+    for (let o = 0; o < offsets; o++) {
+      shift.fill(0)
+      for (let k = 0; k < 3; k++) {
+        u[k] = cellIndex[k] + (k < d ? (Math.floor(o / 3 ** k) % 3) - 1 : 0)
+        const w = u[k] < 0 ? -1 : u[k] >= n[k] ? 1 : 0
+        u[k] -= w * n[k]
+        for (let c = 0; c < d && w !== 0; c++) shift[c] += w * b[k * d + c]
       }
+      const other = (u[2] * n[1] + u[1]) * n[0] + u[0]
+      total.add(cellPairs(order, start, home, other, pos, shift, charges, rc * rc, setup.psi))
     }
   }
   return total.value
+}
+
+/** Σ q_i q_j ψ(|x_i − (x_j + shift)|) over i in cell `home`, j ≠ i in cell `other`, within the cut-off. */
+function cellPairs(order: Int32Array, start: Int32Array, home: number, other: number, pos: Float64Array, shift: number[], charges: ArrayLike<number> | undefined, rc2: number, psi: (r: number) => number): number {
+  let sum = 0
+  for (let a = start[home]; a < start[home + 1]; a++) {
+    const i = order[a]
+    const qi = charges ? charges[i] : 1
+    const xi = pos[3 * i] - shift[0]
+    const yi = pos[3 * i + 1] - shift[1]
+    const zi = pos[3 * i + 2] - shift[2]
+    for (let e = start[other]; e < start[other + 1]; e++) {
+      const j = order[e]
+      if (j === i) continue
+      const dx = xi - pos[3 * j]
+      const dy = yi - pos[3 * j + 1]
+      const dz = zi - pos[3 * j + 2]
+      const r2 = dx * dx + dy * dy + dz * dz
+      if (r2 >= rc2) continue
+      if (r2 === 0) throw new EngineInputError(`points ${Math.min(i, j)} and ${Math.max(i, j)} coincide on the torus`, { indices: [Math.min(i, j), Math.max(i, j)] })
+      sum += qi * (charges ? charges[j] : 1) * psi(Math.sqrt(r2))
+    }
+  }
+  return sum
 }
 
 /** Σ_{k≠0} w_k |Σ_j q_j e^{ik·x_j}|² over the half space of k (the weights carry the factor 2). With
