@@ -4,10 +4,11 @@ import { app, databaseUrl, dataDir, root, serviceEnvironment } from './lib/confi
 import { buildWorkers } from './lib/workers.mjs'
 import { startServices } from './lib/services.mjs'
 import { run } from './lib/run.mjs'
-import { ensureDependencies, ensureWasm, npxBin } from './lib/setup.mjs'
+import { ensureDependencies, ensureNative, ensureWasm, npxBin } from './lib/setup.mjs'
 
 await ensureDependencies()
 await ensureWasm()
+await ensureNative()
 await startServices()
 const { applyMigrations } = await import('./migrate.mjs')
 await applyMigrations(databaseUrl())

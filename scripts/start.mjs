@@ -4,11 +4,12 @@ import { join } from 'node:path'
 import { app, databaseUrl, root, serviceEnvironment } from './lib/config.mjs'
 import { startServices } from './lib/services.mjs'
 import { log, runOrThrow, waitForHealth } from './lib/run.mjs'
-import { ensureDependencies, ensureWasm, npxBin } from './lib/setup.mjs'
+import { ensureDependencies, ensureNative, ensureWasm, npxBin } from './lib/setup.mjs'
 
 async function main() {
   await ensureDependencies()
   await ensureWasm()
+  await ensureNative()
   await startServices()
   const url = databaseUrl()
   const env = { ...process.env, ...serviceEnvironment(), NUXT_DEPLOYMENT: process.env.NUXT_DEPLOYMENT ?? 'demo', NUXT_TELEMETRY_DISABLED: '1' }

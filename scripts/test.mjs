@@ -9,7 +9,7 @@ import { emptyBucket } from './lib/objectstore.mjs'
 import { recreateDatabase } from './lib/mariadb.mjs'
 import { startServices, stopServices } from './lib/services.mjs'
 import { ensureDebianPackages, log, run, sleep, waitForHealth, which } from './lib/run.mjs'
-import { ensureDependencies, ensureWasm, npxBin } from './lib/setup.mjs'
+import { ensureDependencies, ensureNative, ensureWasm, npxBin } from './lib/setup.mjs'
 
 const artifacts = join(root, 'tests', '.artifacts')
 // For iterating (never in CI): QF_TEST_FILTER=remarks runs only the test files whose path contains
@@ -60,6 +60,8 @@ async function main() {
   mkdirSync(artifacts, { recursive: true })
   await ensureDependencies()
   await ensureWasm()
+  if (!which(process.env.CC || 'cc')) await ensureDebianPackages(['gcc', 'libc6-dev'], 'The native direct log kernels (a C compiler)')
+  await ensureNative({ required: true })
   if (!existsSync('/usr/bin/chromium') && !which('chromium')) await ensureDebianPackages(['chromium'], 'The browser tests (Chromium)')
   const started = await startServices()
   let server

@@ -8,11 +8,11 @@ import { UsageError } from '../command'
 import { inputOptions, loadInput, perConfiguration } from '../input'
 import { geometryOptions, numberOption, pointDimension, readKernel, stringOption } from '../setting'
 
-const METHODS: FastMethod[] = ['direct-wasm', 'direct-ts', 'fmm2d', 'fmm3d', 'treecode']
+const METHODS: FastMethod[] = ['direct-native', 'direct-wasm', 'direct-ts', 'fmm2d', 'fmm3d', 'treecode']
 
 export const command: EngineCommand = {
   name: 'energy-fast',
-  summary: 'pair sum Σ_{i<j} g by SIMD direct sums or a fast method chosen from N and the tolerance, with its error bound',
+  summary: 'pair sum Σ_{i<j} g by direct sums (native vector kernels, WebAssembly SIMD or TypeScript) or a fast method chosen from N and the tolerance, with its error bound',
   options: [
     ...inputOptions,
     ...geometryOptions,

@@ -25,3 +25,13 @@ export async function ensureWasm() {
   log('compiling the WebAssembly pair kernels (AssemblyScript)')
   await runOrThrow(process.execPath, [join(root, 'scripts', 'build-wasm.mjs')], { cwd: root })
 }
+
+/** Compiles the native direct log kernels when their addon is missing or older than its sources;
+ *  `required` (npm test) makes a failed build an error, otherwise the engine keeps the WebAssembly path. */
+export async function ensureNative({ required = false } = {}) {
+  const addon = join(root, 'native', 'build', 'pairs.node')
+  const sources = ['pairs-native.c', 'pairs-rows.h'].map(f => join(root, 'native', f))
+  if (existsSync(addon) && sources.every(f => statSync(addon).mtimeMs >= statSync(f).mtimeMs)) return
+  log('compiling the native direct log kernels (C compiler, Node-API)')
+  await runOrThrow(process.execPath, [join(root, 'scripts', 'build-native.mjs'), ...(required ? ['--required'] : [])], { cwd: root })
+}

@@ -72,6 +72,26 @@ describe('engine command line', () => {
     expect(Math.abs(out.electric[0].gap)).toBeLessThan(1e-9)
   })
 
+  it('sums the pairs by the method chosen from N and the tolerance, and names it with its bound in each row', async () => {
+    // N-th roots of unity: Σ_{i<j} −log|ω^i − ω^j| = −(N/2) log N (|Π_{j≠i}(ω^i − ω^j)| = N, the
+    // derivative of z^N − 1 at a root; elementary closed form)
+    const roots = (N: number) => ['x,y', ...Array.from({ length: N }, (_, k) => `${Math.cos((2 * Math.PI * k) / N)},${Math.sin((2 * Math.PI * k) / N)}`)].join('\n')
+    const small = await json(['energy', '--input', 'small.csv'], { 'small.csv': roots(64) })
+    expect(small.method).toBe('direct-native')
+    expect(small.errorBound).toBe(0)
+    expect(Math.abs(small.pairSum + 32 * Math.log(64))).toBeLessThanOrEqual(1e-13 * 32 * Math.log(64))
+    const N = 60000
+    const large = await json(['energy', '--input', 'large.csv', '--tolerance', '1e-8'], { 'large.csv': roots(N) })
+    const exact = -(N / 2) * Math.log(N)
+    expect(large.method).toBe('fmm2d')
+    expect(large.errorBound).toBeGreaterThan(0)
+    expect(large.errorBound).toBeLessThanOrEqual(1e-8)
+    expect(Math.abs(large.pairSum - exact) / Math.abs(exact)).toBeLessThanOrEqual(1e-8)
+    const bad = await runEngine(['energy', '--input', 'small.csv', '--tolerance', '2'], memoryIO({ 'small.csv': roots(64) }))
+    expect(bad.code).toBe(2)
+    expect(bad.stderr).toContain('--tolerance must be in (0, 1)')
+  })
+
   it('names the two coincident points and exits with 1', async () => {
     const result = await runEngine(['energy', '--input', 'dup.csv', '--potential', 'r^2'], memoryIO({ 'dup.csv': 'x,y\n0,0\n1,1\n0,0\n' }))
     expect(result.code).toBe(1)

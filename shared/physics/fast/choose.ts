@@ -1,8 +1,8 @@
 // Choice between the direct pair sum and a fast method for Σ_{i<j} g(x_i − x_j), from N, the kernel,
 // the geometry and the requested relative tolerance. Deterministic: the same input always takes the
-// same route. Direct sums (SIMD kernels when WebAssembly is available, else plain TypeScript) have no
-// truncation error, only rounding (compensated, ≈ 1e−15 relative); the fast methods carry the
-// truncation bounds of fmm2d.ts (Greengard & Rokhlin, J. Comput. Phys. 73, 1987) and treecode.ts.
+// same route. Direct sums (native vector kernels for the log kernel when they are built, SIMD kernels
+// when WebAssembly is available, else plain TypeScript) have no truncation error, only rounding
+// (compensated, ≈ 1e−15 relative); the fast methods carry the truncation bounds of fmm2d.ts (Greengard & Rokhlin, J. Comput. Phys. 73, 1987) and treecode.ts.
 import type { Geometry, Kernel } from '../types'
 import { pairSum } from '../energy'
 import { EngineInputError } from '../errors'
@@ -11,9 +11,10 @@ import { fmm2dEnergy } from './fmm2d'
 import { fmm3dEnergy } from './fmm3d'
 import { planPairSum } from './plan'
 import { logPairTail, rieszTail, treecodeEnergy } from './treecode'
+import { nativeLogKernels, nativeLogSquaredSum } from './native'
 import { wasmPairSum, wasmSimdAvailable } from './wasm'
 
-export type FastMethod = 'direct-wasm' | 'direct-ts' | 'fmm2d' | 'fmm3d' | 'treecode'
+export type FastMethod = 'direct-native' | 'direct-wasm' | 'direct-ts' | 'fmm2d' | 'fmm3d' | 'treecode'
 
 export interface FastEnergyOptions {
   /** Requested relative error (default 1e−10). */
@@ -35,6 +36,10 @@ export interface FastEnergyResult {
 /** Smallest N for which the 2-D log FMM replaces the direct sum (the FMM costs roughly 2.5 µs per
  *  point at 1e−10 against N/2 ns per point for the SIMD direct sum). */
 export const FMM2D_MIN_N = 20000
+/** The same against the native direct kernels (native.ts, two threads). Measured 2026-12-03 on this
+ *  2-core machine (AVX-512), uniform points in the unit square, seconds direct / FMM at 1e−10 (1e−6):
+ *  N = 2e4 0.031 / 0.047 (0.023), 5e4 0.107 / 0.102 (0.056), 1e5 0.42 / 0.17 (0.12), 2e5 1.55 / 0.36. */
+export const FMM2D_MIN_N_NATIVE = 50000
 /** Smallest N for which the 3-D Coulomb FMM energy (fmm3d.ts, an order per far pair of cells)
  *  replaces the single-thread SIMD direct sum in free space, by tolerance (Infinity: never). Measured
  *  2026-12-02 on this 2-core machine, uniform points in the unit cube, seconds direct / FMM:
@@ -68,10 +73,10 @@ export function treecodeWins(N: number, kernel: Kernel, d: number, tolerance: nu
 }
 
 /** Which method `fastEnergy` takes for these inputs. */
-export function chooseMethod(N: number, d: number, kernel: Kernel, geometry: Geometry, tolerance: number, wasm = wasmSimdAvailable()): FastMethod {
-  const direct: FastMethod = wasm ? 'direct-wasm' : 'direct-ts'
+export function chooseMethod(N: number, d: number, kernel: Kernel, geometry: Geometry, tolerance: number, wasm = wasmSimdAvailable(), native = nativeLogKernels() !== undefined): FastMethod {
+  const direct: FastMethod = native && kernel.name === 'log' ? 'direct-native' : wasm ? 'direct-wasm' : 'direct-ts'
   const planar = geometry.kind === 'free' && (d === 1 || d === 2)
-  if (kernel.name === 'log' && planar && N >= FMM2D_MIN_N && tolerance >= 1e-13) return 'fmm2d'
+  if (kernel.name === 'log' && planar && N >= (direct === 'direct-native' ? FMM2D_MIN_N_NATIVE : FMM2D_MIN_N) && tolerance >= 1e-13) return 'fmm2d'
   if (kernel.name === 'coulomb' && d === 3 && geometry.kind === 'free' && N >= fmm3dMinN(tolerance)) return 'fmm3d'
   if ((d === 3 || geometry.kind === 'sphere') && treecodeWins(N, kernel, 3, tolerance)) return 'treecode'
   return direct
@@ -98,6 +103,13 @@ export function fastEnergy(points: Float64Array, d: number, kernel: Kernel, geom
   if (method === 'treecode') {
     const r = treecodeEnergy(points, d, kernel, geometry, { tolerance: tol })
     return { value: r.value, method, errorBound: r.errorBound, parameters: { ...r.parameters }, engineVersion: ENGINE_VERSION }
+  }
+  if (method === 'direct-native') {
+    const kernels = nativeLogKernels()
+    if (!kernels) throw new EngineInputError('the native direct kernels are not built on this machine (npm run build:native)')
+    if (plan.kind !== 'log') throw new EngineInputError('the native direct kernels sum the log kernel only')
+    const value = -0.5 * nativeLogSquaredSum(kernels, points, plan.d)
+    return { value, method, errorBound: 0, parameters: { N, isa: kernels.isa, threads: kernels.threads }, engineVersion: ENGINE_VERSION }
   }
   if (method === 'direct-wasm') {
     return { value: wasmPairSum(points, d, kernel, geometry), method, errorBound: 0, parameters: { N }, engineVersion: ENGINE_VERSION }

@@ -1,17 +1,24 @@
 import { describe, it, expect } from 'vitest'
 import { pairSum } from '../../../../shared/physics/energy'
 import { EngineInputError } from '../../../../shared/physics/errors'
-import { FMM2D_MIN_N, chooseMethod, fastEnergy, fmm3dMinN, treecodeWins } from '../../../../shared/physics/fast/choose'
+import { FMM2D_MIN_N, FMM2D_MIN_N_NATIVE, chooseMethod, fastEnergy, fmm3dMinN, treecodeWins } from '../../../../shared/physics/fast/choose'
 import { clustered, relErr, sphere, uniform } from './configurations'
 
 describe('choice of the pair-sum method', () => {
   it('is deterministic and follows N, kernel, geometry and tolerance', () => {
     const free2 = { kind: 'free', d: 2 } as const
-    expect(chooseMethod(1000, 2, { name: 'log' }, free2, 1e-10, true)).toBe('direct-wasm')
-    expect(chooseMethod(1000, 2, { name: 'log' }, free2, 1e-10, false)).toBe('direct-ts')
-    expect(chooseMethod(FMM2D_MIN_N, 2, { name: 'log' }, free2, 1e-10, true)).toBe('fmm2d')
-    expect(chooseMethod(FMM2D_MIN_N, 1, { name: 'log' }, { kind: 'free', d: 1 }, 1e-10, true)).toBe('fmm2d')
-    expect(chooseMethod(FMM2D_MIN_N, 2, { name: 'log' }, free2, 1e-15, true)).toBe('direct-wasm')
+    expect(chooseMethod(1000, 2, { name: 'log' }, free2, 1e-10, true, false)).toBe('direct-wasm')
+    expect(chooseMethod(1000, 2, { name: 'log' }, free2, 1e-10, false, false)).toBe('direct-ts')
+    expect(chooseMethod(1000, 2, { name: 'log' }, free2, 1e-10, true, true)).toBe('direct-native')
+    expect(chooseMethod(1000, 3, { name: 'log' }, { kind: 'sphere' }, 1e-10, true, true)).toBe('direct-native')
+    // the native kernels sum the log kernel only
+    expect(chooseMethod(1000, 2, { name: 'riesz', s: 1 }, free2, 1e-10, true, true)).toBe('direct-wasm')
+    // against the faster native direct sum the 2-D FMM starts later
+    expect(chooseMethod(FMM2D_MIN_N, 2, { name: 'log' }, free2, 1e-10, true, true)).toBe('direct-native')
+    expect(chooseMethod(FMM2D_MIN_N_NATIVE, 2, { name: 'log' }, free2, 1e-10, true, true)).toBe('fmm2d')
+    expect(chooseMethod(FMM2D_MIN_N, 2, { name: 'log' }, free2, 1e-10, true, false)).toBe('fmm2d')
+    expect(chooseMethod(FMM2D_MIN_N, 1, { name: 'log' }, { kind: 'free', d: 1 }, 1e-10, true, false)).toBe('fmm2d')
+    expect(chooseMethod(FMM2D_MIN_N, 2, { name: 'log' }, free2, 1e-15, true, false)).toBe('direct-wasm')
     expect(chooseMethod(FMM2D_MIN_N, 2, { name: 'riesz', s: 1 }, free2, 1e-6, true)).toBe('direct-wasm')
     // tolerance 1e−2 at θ = 0.5, s = 1: (1.5)·0.5^(p+1)/0.5 ≤ 1e−2 first at p = 8, C(11, 3) = 165 terms
     expect(treecodeWins(3000 * 165 + 1, { name: 'coulomb' }, 3, 1e-2)).toBe(true)
