@@ -40,12 +40,6 @@
 #define QF_SPLAT splat8
 #define QF_FOUR four_avx512
 #include "pairs-rows.h"
-#undef QF_W
-#undef QF_VD
-#undef QF_VI
-#undef QF_LOAD
-#undef QF_SPLAT
-#undef QF_FOUR
 #pragma GCC pop_options
 
 #pragma GCC push_options
@@ -57,12 +51,6 @@
 #define QF_SPLAT splat4
 #define QF_FOUR four_avx2
 #include "pairs-rows.h"
-#undef QF_W
-#undef QF_VD
-#undef QF_VI
-#undef QF_LOAD
-#undef QF_SPLAT
-#undef QF_FOUR
 #pragma GCC pop_options
 
 typedef int (*four_fn)(const double *, const double *, const double *, int, int, double *, int64_t *);

@@ -1,6 +1,7 @@
 // One instantiation of the vector kernel of pairs-native.c: four rows i..i+3 against the columns
 // j ≥ i + 4, W lanes of doubles (GCC vector extensions). Included once per instruction set with
-// QF_W (lanes) and QF_FOUR (the function's name) defined, under a `#pragma GCC target`.
+// QF_W (lanes), QF_FOUR (the function's name) and the type and helper names QF_VD, QF_VI, QF_LOAD,
+// QF_SPLAT defined, under a `#pragma GCC target`; it undefines them at its end.
 //
 // Each row keeps W running products of squared distances. Every 4 steps, and at the end, each product
 // is split into its binary exponent (added to a 64-bit integer per lane, exactly) and its mantissa in
@@ -89,3 +90,9 @@ static int QF_FOUR(const double *X, const double *Y, const double *Z, int n, int
 }
 
 #undef QF_RENORM
+#undef QF_W
+#undef QF_VD
+#undef QF_VI
+#undef QF_LOAD
+#undef QF_SPLAT
+#undef QF_FOUR
