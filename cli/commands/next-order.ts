@@ -5,8 +5,9 @@ import { nextOrderEnergy } from '../../shared/physics/nextorder'
 import { ENGINE_VERSION } from '../../shared/physics/version'
 import { conventionLabel, CANONICAL_CONVENTION } from '../../shared/physics/conventions'
 import type { EngineCommand } from '../command'
+import { UsageError } from '../command'
 import { inputOptions, loadInput, perConfiguration } from '../input'
-import { geometryOptions, pointDimension, potentialOptions, readEtaRules, readKernel, readPotential } from '../setting'
+import { geometryOptions, numberOption, pointDimension, potentialOptions, readEtaRules, readKernel, readPotential } from '../setting'
 import '../../shared/physics/equilibrium/solvers'
 
 export const command: EngineCommand = {
@@ -15,8 +16,11 @@ export const command: EngineCommand = {
   options: [
     ...inputOptions, ...geometryOptions, ...potentialOptions,
     { name: 'eta', type: 'string', description: 'η rules, comma-separated: fixed:η, scaled:factor (η = factor·N^(−1/d)), nn-capped (η = min(¼ r_nn, N^(−1/d)))', default: 'nn-capped' },
+    { name: 'tolerance', type: 'number', description: 'relative error allowed in the pair sum, which lets a fast method replace the direct sum for large N', default: 1e-10 },
   ],
   async run(args, io) {
+    const tolerance = numberOption(args, 'tolerance') ?? 1e-10
+    if (!(tolerance > 0 && tolerance < 1)) throw new UsageError(`--tolerance must be in (0, 1) (got ${tolerance})`)
     const input = await loadInput(args, io)
     const { geometry, ensemble } = input
     const d = pointDimension(geometry)
@@ -27,15 +31,15 @@ export const command: EngineCommand = {
     const electricApplies = geometry.kind === 'free' && ((kernel.name === 'log' && d <= 2) || (kernel.name === 'coulomb' && d === 3))
     const rows = input.selected.map((k) => {
       const conf = ensemble.configurations[k]!
-      const r = nextOrderEnergy(conf, { kernel, geometry, potential, measure })
+      const r = nextOrderEnergy(conf, { kernel, geometry, potential, measure, tolerance })
       const electric = electricApplies
         ? rules.map((rule) => {
-            const e = electricEnergy(conf, measure, { rule })
+            const e = electricEnergy(conf, measure, { rule, pairSum: r.pairSum })
             return { rule, value: e.value, overlaps: e.overlaps, lowerBound: e.lowerBound, gap: electricGap(r.nextOrder, e) }
           })
         : []
       return {
-        N: r.N, d: r.d, pairSum: r.pairSum, confinement: r.confinement, H: r.H,
+        N: r.N, d: r.d, pairSum: r.pairSum, method: r.pairMethod, errorBound: r.pairErrorBound, confinement: r.confinement, H: r.H,
         IV: r.IV, cV: r.cV, zetaSum: r.zetaSum, nextOrder: r.nextOrder,
         splittingResidual: r.splittingResidual,
         normalisedNextOrder: r.normalisedNextOrder, normalisation: r.normalisation,

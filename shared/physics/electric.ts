@@ -288,16 +288,24 @@ function checkInput(conf: Configuration, measure: EquilibriumMeasure): void {
 }
 
 /** The electric energy of a configuration for the smearing radii of `rule` (see the header). */
-export function electricEnergy(conf: Configuration, measure: EquilibriumMeasure, { rule }: { rule: EtaRule }): ElectricResult {
+export function electricEnergy(conf: Configuration, measure: EquilibriumMeasure, { rule, pairSum }: {
+  rule: EtaRule
+  /** Σ_{i<j} g(x_i − x_j) when the caller has it already (e.g. from fast/choose.ts); else summed directly. */
+  pairSum?: number
+}): ElectricResult {
   checkInput(conf, measure)
   const { N, d, points } = conf
   const etas = smearingRadii(conf, rule)
   const pd: 2 | 3 = d === 3 ? 3 : 2
   const g = pd === 3 ? (r: number) => 1 / r : (r: number) => -Math.log(r)
 
-  // Σ_{i≠j} g(x_i − x_j): direct sum (replaceable by a fast summation without changing the rest)
+  // Σ_{i≠j} g(x_i − x_j): the caller's sum, or the direct one
   const pairG = new Sum()
-  for (let i = 0; i < N; i++) {
+  if (pairSum !== undefined) {
+    if (!Number.isFinite(pairSum)) throw new EngineInputError(`the given pair sum is not a finite number (got ${pairSum})`)
+    pairG.add(2 * pairSum)
+  }
+  for (let i = 0; i < N && pairSum === undefined; i++) {
     for (let j = i + 1; j < N; j++) {
       const r2 = dist2(points, d, i, j)
       if (r2 === 0) throw new EngineInputError(`points ${i} and ${j} coincide: the next-order energy is infinite`, { indices: [i, j] })

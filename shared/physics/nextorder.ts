@@ -14,7 +14,9 @@ import type { EquilibriumMeasure } from './equilibrium/types'
 import type { EnergyConvention } from './conventions'
 import { CANONICAL_CONVENTION } from './conventions'
 import { EngineInputError } from './errors'
-import { confinement, pairSum } from './energy'
+import { confinement } from './energy'
+import { fastEnergy } from './fast/choose'
+import type { FastMethod } from './fast/choose'
 import { equilibriumMeasure } from './equilibrium/index'
 import { CompensatedSum } from './summation'
 import { ENGINE_VERSION } from './version'
@@ -25,6 +27,9 @@ export interface NextOrderSetting {
   readonly potential?: Potential
   /** The measure μ; μ_V of the kernel and potential when left out. */
   readonly measure?: EquilibriumMeasure
+  /** Relative error allowed in the pair sum (default 1e−10): a fast method may then replace the
+   *  direct sum for large N (fast/choose.ts). */
+  readonly tolerance?: number
 }
 
 export interface NextOrderResult {
@@ -32,6 +37,9 @@ export interface NextOrderResult {
   readonly d: number
   /** Σ_{i<j} g(x_i − x_j). */
   readonly pairSum: number
+  /** How the pair sum was taken, and the bound of its relative truncation error (0 for direct sums). */
+  readonly pairMethod: FastMethod
+  readonly pairErrorBound: number
   /** Σ_i V(x_i). */
   readonly confinement: number
   /** Canonical energy Σ_{i≠j} g + N Σ V. */
@@ -73,7 +81,9 @@ export function nextOrderEnergy(conf: Configuration, setting: NextOrderSetting):
   if (geometry.kind === 'sphere' && potential !== undefined) throw new EngineInputError('the sphere carries no external potential; leave the potential out')
   const N = conf.N
   if (!(N >= 1)) throw new EngineInputError('the configuration has no points')
-  const ps = pairSum(conf, kernel, geometry)
+  if (conf.points.length !== N * conf.d) throw new EngineInputError(`the configuration declares N = ${N} points of dimension ${conf.d} but holds ${conf.points.length} numbers`)
+  const pairs = fastEnergy(conf.points, conf.d, kernel, geometry, { tolerance: setting.tolerance ?? 1e-10 })
+  const ps = pairs.value
   const conf0 = potential === undefined ? 0 : confinement(conf, potential)
   const d = conf.d
   const mu = setting.measure ?? equilibriumMeasure({ d, kernel, potential, geometry })
@@ -99,6 +109,8 @@ export function nextOrderEnergy(conf: Configuration, setting: NextOrderSetting):
     N,
     d,
     pairSum: ps,
+    pairMethod: pairs.method,
+    pairErrorBound: pairs.errorBound,
     confinement: conf0,
     H,
     selfEnergy: mu.selfEnergy,

@@ -87,9 +87,15 @@ describe('engine command line', () => {
     expect(large.errorBound).toBeGreaterThan(0)
     expect(large.errorBound).toBeLessThanOrEqual(1e-8)
     expect(Math.abs(large.pairSum - exact) / Math.abs(exact)).toBeLessThanOrEqual(1e-8)
-    const bad = await runEngine(['energy', '--input', 'small.csv', '--tolerance', '2'], memoryIO({ 'small.csv': roots(64) }))
-    expect(bad.code).toBe(2)
-    expect(bad.stderr).toContain('--tolerance must be in (0, 1)')
+    const next = await json(['next-order', '--input', 'large.csv', '--tolerance', '1e-8', '--preset', 'quadratic', '--eta', 'fixed:1e-5'], { 'large.csv': roots(N) })
+    expect(next.method).toBe('fmm2d')
+    expect(next.errorBound).toBeLessThanOrEqual(1e-8)
+    expect(Math.abs(next.pairSum - exact) / Math.abs(exact)).toBeLessThanOrEqual(1e-8)
+    for (const command of ['energy', 'next-order']) {
+      const bad = await runEngine([command, '--input', 'small.csv', '--tolerance', '2'], memoryIO({ 'small.csv': roots(64) }))
+      expect(bad.code).toBe(2)
+      expect(bad.stderr).toContain('--tolerance must be in (0, 1)')
+    }
   })
 
   it('names the two coincident points and exits with 1', async () => {

@@ -225,6 +225,18 @@ describe('electric energy and the lower bound for F_N', () => {
         }
       }
       expect(Math.abs(gap - expected)).toBeLessThan(1e-9 * Math.max(1, Math.abs(FN)))
+      // a pair sum the caller already has (Σ_{i<j} g, here summed by the test) replaces the direct one
+      let ps = 0
+      for (let i = 0; i < 12; i++) {
+        for (let j = i + 1; j < 12; j++) {
+          let s = 0
+          for (let c = 0; c < d; c++) s += (p[i * d + c] - p[j * d + c]) ** 2
+          ps += pd === 3 ? 1 / Math.sqrt(s) : -0.5 * Math.log(s)
+        }
+      }
+      const given = electricEnergy(conf(p, d), measure, { rule: { kind: 'fixed', eta: 0.4 }, pairSum: ps })
+      expect(Math.abs(given.value - res.value)).toBeLessThan(1e-12 * Math.max(1, Math.abs(res.value)))
+      expect(() => electricEnergy(conf(p, d), measure, { rule: { kind: 'fixed', eta: 0.4 }, pairSum: Number.NaN })).toThrow(/pair sum/)
     }
   })
   it('constant density: h^μ(x) − ⟨h^μ⟩_{∂B(x,η)} = c_d m η²/(2d), so value − lowerBound = Σ g(η_i) + 2N Σ c_d m η_i²/(2d) (h^μ is quadratic there, Δh^μ = −c_d m: elementary)', () => {

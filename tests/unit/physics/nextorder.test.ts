@@ -45,6 +45,35 @@ describe('next-order energy', () => {
     expect(res.splittingResidual.relative).toBeGreaterThan(1e-6)
   })
 
+  it('takes the pair sum by the chosen method: N-th roots of unity on a circle of radius ρ', () => {
+    // Σ_{i<j} −log|ρω^i − ρω^j| = −(N/2) log N − (N(N−1)/2) log ρ, since |Π_{j≠i}(ω^i − ω^j)| = N
+    // (elementary: the derivative of z^N − 1 at a root; common practice)
+    const ring = (N: number, rho: number): Configuration => {
+      const points = new Float64Array(2 * N)
+      for (let k = 0; k < N; k++) {
+        points[2 * k] = rho * Math.cos((2 * Math.PI * k) / N)
+        points[2 * k + 1] = rho * Math.sin((2 * Math.PI * k) / N)
+      }
+      return { N, d: 2, points }
+    }
+    const exact = (N: number, rho: number) => -(N / 2) * Math.log(N) - ((N * (N - 1)) / 2) * Math.log(rho)
+    const setting = { kernel: { name: 'log' as const }, geometry: { kind: 'free' as const, d: 2 as const }, potential: quadratic(1, 2) }
+    const small = nextOrderEnergy(ring(200, 0.5), setting)
+    expect(small.pairMethod).toMatch(/^direct-/)
+    expect(small.pairErrorBound).toBe(0)
+    expect(Math.abs(small.pairSum - exact(200, 0.5))).toBeLessThan(1e-12 * Math.abs(exact(200, 0.5)))
+    const N = 60000
+    const big = nextOrderEnergy(ring(N, 0.5), { ...setting, tolerance: 1e-8 })
+    expect(big.pairMethod).toBe('fmm2d')
+    expect(big.pairErrorBound).toBeGreaterThan(0)
+    expect(big.pairErrorBound).toBeLessThanOrEqual(1e-8)
+    const ref = exact(N, 0.5)
+    expect(Math.abs(big.pairSum - ref)).toBeLessThanOrEqual((big.pairErrorBound + 1e-14) * Math.abs(ref))
+    // F_N and H_N are built from that pair sum, so the splitting identity still closes
+    expect(big.splittingResidual.relative).toBeLessThan(1e-12)
+    expect(() => nextOrderEnergy(ring(10, 0.5), { ...setting, tolerance: 2 })).toThrow(/tolerance/)
+  })
+
   it('normalises by the published rates', () => {
     expect(normaliseNextOrder(-10, 100, { name: 'log' }, { kind: 'free', d: 2 }).value).toBeCloseTo((-10 + 50 * Math.log(100)) / 100, 14)
     expect(normaliseNextOrder(-10, 100, { name: 'log' }, { kind: 'sphere' }).label).toBe('(F_N + (N/2) log N)/N')
