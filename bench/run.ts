@@ -7,8 +7,10 @@
 //      direct sum at N = 1e4 and 1e5 (1e6 with --large, no reference there), tolerances 1e−3 and 1e−6,
 //      with the measured error
 //   4. a NumPy/SciPy peer (scipy.spatial.distance.pdist), when python3 has numpy and scipy
-//   5. samplers and statistics (bench/samplers.ts)
-// Usage: npx tsx bench/run.ts [--large]
+//   5. torus energies (Ewald): the sum over wave vectors vs the spline mesh, 2-D log and 3-D Coulomb,
+//      with the difference of the two and their estimates, and the growth of the mesh route with N
+//   6. samplers and statistics (bench/samplers.ts)
+// Usage: npx tsx bench/run.ts [--large] [--torus-only]
 import { execFileSync } from 'node:child_process'
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
@@ -20,6 +22,8 @@ import { nativeLogKernels, nativeLogSquaredSum } from '../shared/physics/fast/na
 import { treecodeEnergy } from '../shared/physics/fast/treecode'
 import { PairKernels, wasmPairSum } from '../shared/physics/fast/wasm'
 import { PairPool } from '../server/engine/pool'
+import { torusEnergy } from '../shared/physics/torus/ewald'
+import { cubicLattice } from '../shared/physics/torus/lattice'
 import { benchSamplersAndStatistics } from './samplers'
 
 const large = process.argv.includes('--large')
@@ -155,7 +159,32 @@ async function main(): Promise<void> {
     }
   }
   await pool.close()
+  benchTorus()
   benchSamplersAndStatistics()
+}
+
+/** Torus energies by the two reciprocal routes (one thread), uniform points at density 1. */
+function benchTorus(): void {
+  console.log('\n5. torus energies (Ewald, tolerance 1e−13): wave vectors vs spline mesh, one thread')
+  const cases: Array<[2 | 3, number[], number]> = [[2, large ? [1000, 10000, 30000, 100000, 1000000] : [1000, 10000, 30000, 100000], 30000], [3, large ? [1000, 10000, 100000] : [1000, 10000], 5000]]
+  for (const [d, sizes, modesUpTo] of cases) {
+    let last: [number, number] | undefined
+    for (const N of sizes) {
+      const L = Math.pow(N, 1 / d)
+      const points = uniform(N, d, 11).map(v => v * L)
+      const lattice = cubicLattice(d, L)
+      const [mesh, tM] = timed(() => torusEnergy(lattice, points, { reciprocal: 'mesh' }))
+      const m = mesh.parameters.mesh
+      let line = `  d = ${d}, N = ${N}: mesh ${tM.toFixed(3)} s (${m?.sizes.join('×')}, order ${m?.splineOrder}, α = ${mesh.parameters.alpha.toFixed(2)}), estimate ${fmt(mesh.errorEstimate / Math.abs(mesh.value))} relative`
+      if (N <= modesUpTo) {
+        const [modes, tW] = timed(() => torusEnergy(lattice, points, { reciprocal: 'modes' }))
+        line += `; wave vectors ${tW.toFixed(3)} s, ratio ${(tW / tM).toFixed(2)}×, |Δ|/|E| = ${fmt(Math.abs(modes.value - mesh.value) / Math.abs(mesh.value))} (estimates ${fmt((modes.errorEstimate + mesh.errorEstimate) / Math.abs(mesh.value))})`
+      }
+      if (last) line += `; time grows as N^${(Math.log(tM / last[1]) / Math.log(N / last[0])).toFixed(2)}`
+      console.log(line)
+      last = [N, tM]
+    }
+  }
 }
 
 /** The 3-D Coulomb FMM against the SIMD direct sum, times measured in the same run. */
@@ -181,4 +210,5 @@ export async function bench3dFmm(pool: PairPool, sizes = large ? [10000, 100000,
   }
 }
 
-if (!process.argv.includes('--fmm3d-only')) await main()
+if (process.argv.includes('--torus-only')) benchTorus()
+else if (!process.argv.includes('--fmm3d-only')) await main()

@@ -17,7 +17,7 @@ function seconds<T>(f: () => T): [T, number] {
 }
 
 export function benchSamplersAndStatistics(): void {
-  console.log('\n5. samplers and statistics')
+  console.log('\n6. samplers and statistics')
   const rng = createRng('bench')
   for (const N of [200, 400]) {
     const [, tH] = seconds(() => sampleGinibre({ N, model: 'hessenberg' }, rng))

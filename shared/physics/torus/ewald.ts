@@ -31,6 +31,8 @@ import { ENGINE_VERSION } from '../version'
 import { CompensatedSum } from '../summation'
 import { erfc, expint1, EULER_GAMMA } from './special-functions'
 import { assertLattice, cellVolume, cubicLattice, dualBasis } from './lattice'
+import { halfExpintPlusLogTable, scaledErfcTable, scaledExpintTable } from './tables'
+import { chooseMesh, meshReciprocalSum } from './mesh'
 import type { Lattice } from './lattice'
 import type { Configuration } from '../types'
 
@@ -40,9 +42,25 @@ export interface EwaldOptions {
   /** 'native' (default): g = −log|x| in 2-D, 1/|x| in 3-D. 'sheet-coulomb': a 2-D lattice with the
    *  pair interaction 1/|x| (charges and background confined to a plane of 3-D space). */
   interaction?: 'native' | 'sheet-coulomb'
-  /** Splitting parameter α > 0 (the Gaussians are e^{−α|x|²}); by default 4π N^{1/d}/|Λ|^{2/d}. */
+  /** Splitting parameter α > 0 (the Gaussians are e^{−α|x|²}); by default 4π N^{1/d}/|Λ|^{2/d} for the
+   *  sum over wave vectors and MESH_ALPHA_FACTOR (N/|Λ|)^{2/d} for the mesh. */
   alpha?: number
+  /** How the reciprocal-space sum is taken: 'modes', over every wave vector within the cut-off
+   *  (O(N · N^{1/2}) with the default α), or 'mesh', by smooth particle-mesh Ewald (mesh.ts, O(N log N),
+   *  with its own error bound). By default 'mesh' from MESH_MIN_N points on. */
+  reciprocal?: 'modes' | 'mesh'
 }
+
+/** From this many points on, torus energies take the reciprocal sum on a mesh. Measured 2026-12-03 on
+ *  this machine (one thread, uniform points at density 1, tolerance 1e−13), seconds wave vectors / mesh:
+ *  2-D N = 1e3 0.08 / 0.12, 3e3 0.29 / 0.11, 1e4 1.57 / 0.19, 3e4 8.2 / 0.80; 3-D N = 1e3 0.70 / 0.40,
+ *  3e3 3.3 / 0.73 (bench/run.ts, section 5). */
+export const MESH_MIN_N = 2000
+/** Relative error allowed for in each real-space term ψ_α (the special functions are accurate to
+ *  ≈ 1e−15, their scaled tables to < 1e−14, both checked in tests/reference/ewald*.test.ts). */
+export const PAIR_RELATIVE_ERROR = 2e-14
+/** α = MESH_ALPHA_FACTOR · (N/|Λ|)^{2/d} for the mesh route (measured, see MESH_MIN_N). */
+export const MESH_ALPHA_FACTOR = { 2: 2, 3: 2 } as const
 
 export interface EwaldParameters {
   readonly alpha: number
@@ -54,6 +72,9 @@ export interface EwaldParameters {
   readonly reciprocalVectors: number
   /** Energies: how the real-space terms were found ('cells': a cell list; 'pairs': every pair). */
   readonly realSpace?: 'cells' | 'pairs'
+  /** Energies: how the reciprocal-space sum was taken, and for the mesh its size, spline order and bound. */
+  readonly reciprocalSpace?: 'modes' | 'mesh'
+  readonly mesh?: { readonly sizes: readonly number[], readonly splineOrder: number, readonly bound: number }
 }
 
 export interface TorusEnergyResult {
@@ -65,7 +86,9 @@ export interface TorusEnergyResult {
   readonly d: 2 | 3
   readonly chargeTotal: number
   readonly parameters: EwaldParameters
-  /** Estimate of the truncation error: (Σ|q_i|)² times the continuum approximation of both tails. */
+  /** Estimate of the error: (Σ|q_i|)² times the continuum approximation of both tails, plus the mesh
+   *  bound (mesh route), plus the rounding of the parts that cancel (PAIR_RELATIVE_ERROR times the sum of
+   *  the real-space terms' sizes, 1e−15 times each other part). */
   readonly errorEstimate: number
   readonly engineVersion: string
 }
@@ -92,13 +115,17 @@ interface Setup {
   km: Int32Array
   mmax: number[]
   psi: (r: number) => number
+  /** The weight of a half-space wave vector with |k|² = k2 (the factor 2 for −k included). */
+  weight: (k2: number) => number
+  /** ψ_α as a function of r², from the tables of tables.ts (for the pair loops). */
+  psiOfSquare: (r2: number) => number
   selfLimit: number
   /** The constant term of G: −(1/|Λ|) ∫ (g − ψ_α) regularised, i.e. −c_d/(4α|Λ|) (−2√(π/α)/|Λ| for the sheet). */
   meanOffset: number
   tail: number
 }
 
-function prepare(lattice: Lattice, N: number, options: EwaldOptions): Setup {
+function prepare(lattice: Lattice, N: number, options: EwaldOptions, route: 'modes' | 'mesh' = 'modes'): Setup {
   assertLattice(lattice)
   const d = lattice.d
   const tolerance = options.tolerance ?? 1e-13
@@ -107,7 +134,9 @@ function prepare(lattice: Lattice, N: number, options: EwaldOptions): Setup {
   // default α: 4π N^{1/d}/|Λ|^{2/d}. Measured 2026-12-02 (one thread, N uniform points on the square
   // torus of area N, tolerance 1e−13): N = 1e4 with α at 1, 2, 4, 8 times π√N/|Λ| took 12.1 (every
   // pair), 6.4, 3.4, 3.6 s (cell list); N = 4e4 at 4, 8, 16 times took 27.7, 25.0, 33.5 s
-  const alpha = options.alpha ?? (4 * Math.PI * Math.pow(Math.max(1, N), 1 / d)) / Math.pow(volume, 2 / d)
+  const alpha = options.alpha ?? (route === 'mesh'
+    ? MESH_ALPHA_FACTOR[d] * Math.pow(Math.max(1, N) / volume, 2 / d)
+    : (4 * Math.PI * Math.pow(Math.max(1, N), 1 / d)) / Math.pow(volume, 2 / d))
   if (!(alpha > 0 && Number.isFinite(alpha))) throw new EngineInputError(`the Ewald parameter α must be a finite number > 0 (got ${alpha})`)
   const s = Math.sqrt(Math.log(1 / tolerance)) + 1
   const rc = s / Math.sqrt(alpha)
@@ -134,10 +163,14 @@ function prepare(lattice: Lattice, N: number, options: EwaldOptions): Setup {
   })
   const mmax: number[] = []
   for (let i = 0; i < d; i++) mmax.push(Math.floor((kc * norm(b, i)) / (2 * Math.PI)) + 1)
+  // factor 2 for −k; the sheet: 2-D Fourier transform of erf(√α r)/r is (2π/k) erfc(k/(2√α))
+  const weight = sheet
+    ? (k2: number) => ((2 * 2 * Math.PI) / volume) * (erfc(Math.sqrt(k2) / (2 * Math.sqrt(alpha))) / Math.sqrt(k2))
+    : (k2: number) => ((2 * cd) / volume) * (Math.exp(-k2 / (4 * alpha)) / k2)
   const ks: number[] = []
   const kw: number[] = []
   const km: number[] = []
-  forEachInteger(mmax, d, (m) => {
+  if (route === 'modes') forEachInteger(mmax, d, (m) => {
     // half space: first non-zero component positive
     const first = m.find(v => v !== 0)
     if (first === undefined || first < 0) return
@@ -146,13 +179,12 @@ function prepare(lattice: Lattice, N: number, options: EwaldOptions): Setup {
     if (k2 > kc * kc) return
     ks.push(...k)
     km.push(...m)
-    // factor 2 for −k; the sheet: 2-D Fourier transform of erf(√α r)/r is (2π/k) erfc(k/(2√α))
-    if (sheet) kw.push(((2 * 2 * Math.PI) / volume) * (erfc(Math.sqrt(k2) / (2 * Math.sqrt(alpha))) / Math.sqrt(k2)))
-    else kw.push(((2 * cd) / volume) * (Math.exp(-k2 / (4 * alpha)) / k2))
+    kw.push(weight(k2))
   })
   const psi = d === 3 || sheet
     ? (r: number) => erfc(Math.sqrt(alpha) * r) / r
     : (r: number) => 0.5 * expint1(alpha * r * r)
+  const psiOfSquare = d === 3 || sheet ? erfcOverR(alpha, rc) : halfExpint(alpha, rc)
   const selfLimit = d === 3 || sheet ? -2 * Math.sqrt(alpha / Math.PI) : -0.5 * (EULER_GAMMA + Math.log(alpha))
   const meanOffset = sheet ? -(2 * Math.sqrt(Math.PI / alpha)) / volume : -cd / (4 * alpha * volume)
   // continuum estimates of the neglected tails for one unit-charge pair
@@ -188,9 +220,31 @@ function prepare(lattice: Lattice, N: number, options: EwaldOptions): Setup {
     km: Int32Array.from(km),
     mmax,
     psi,
+    weight,
+    psiOfSquare,
     selfLimit,
     meanOffset,
     tail,
+  }
+}
+
+/** ½E₁(α r²) from the tables of tables.ts: ½(E₁ + log)(x) − ½ log x below x = α r² = 1, ½e^{−x}(eˣE₁)(x) above. */
+function halfExpint(alpha: number, rc: number): (r2: number) => number {
+  const small = halfExpintPlusLogTable()
+  const large = scaledExpintTable(alpha * rc * rc)
+  return (r2: number) => {
+    const x = alpha * r2
+    return x < 1 ? small.evaluate(x) - 0.5 * Math.log(x) : 0.5 * Math.exp(-x) * large.evaluate(x)
+  }
+}
+
+/** erfc(√α r)/r = e^{−αr²}(e^{y²}erfc)(y)/r, y = √α r, from a table on [0, √α r_c]. */
+function erfcOverR(alpha: number, rc: number): (r2: number) => number {
+  const c = Math.sqrt(alpha)
+  const table = scaledErfcTable(c * rc)
+  return (r2: number) => {
+    const r = Math.sqrt(r2)
+    return (Math.exp(-alpha * r2) * table.evaluate(c * r)) / r
   }
 }
 
@@ -272,7 +326,7 @@ function realSum(setup: Setup, x: Float64Array, includeOrigin: boolean): number 
  *  3^d neighbouring cells (translations across the cell's faces included). The same terms as the
  *  all-pairs loop, in another order, at a cost of about N·3^d·N/∏n_k pairs. Undefined when some
  *  n_k < 3 (the cut-off reaches across the cell; the caller sums all pairs). */
-function realPairsByCells(setup: Setup, lattice: Lattice, points: ArrayLike<number>, charges: ArrayLike<number> | undefined, N: number): number | undefined {
+function realPairsByCells(setup: Setup, lattice: Lattice, points: ArrayLike<number>, charges: ArrayLike<number> | undefined, N: number): { value: number, size: number } | undefined {
   const d = setup.d
   const b = lattice.basis
   const dual = setup.dual
@@ -308,6 +362,7 @@ function realPairsByCells(setup: Setup, lattice: Lattice, points: ArrayLike<numb
   const order = new Int32Array(N)
   for (let i = 0; i < N; i++) order[fill[cellOf[i]]++] = i
   const total = new CompensatedSum()
+  const size = new Float64Array(1)
   // the 3^d neighbouring cells of every cell, with the translation taking a neighbour across a face
   const offsets = d === 3 ? 27 : 9
   const cellIndex = [0, 0, 0]
@@ -327,15 +382,18 @@ function realPairsByCells(setup: Setup, lattice: Lattice, points: ArrayLike<numb
         for (let c = 0; c < d && w !== 0; c++) shift[c] += w * b[k * d + c]
       }
       const other = (u[2] * n[1] + u[1]) * n[0] + u[0]
-      total.add(cellPairs(order, start, home, other, pos, shift, charges, rc * rc, setup.psi))
+      total.add(cellPairs(order, start, home, other, pos, shift, charges, rc * rc, setup.psiOfSquare, size))
     }
   }
-  return total.value
+  return { value: total.value, size: size[0] }
 }
 
-/** Σ q_i q_j ψ(|x_i − (x_j + shift)|) over i in cell `home`, j ≠ i in cell `other`, within the cut-off. */
-function cellPairs(order: Int32Array, start: Int32Array, home: number, other: number, pos: Float64Array, shift: number[], charges: ArrayLike<number> | undefined, rc2: number, psi: (r: number) => number): number {
+/** Σ q_i q_j ψ(|x_i − (x_j + shift)|) (ψ from its tables) over i in cell `home`, j ≠ i in cell `other`,
+ *  within the cut-off; Σ |q_i q_j| ψ is added to size[0]. */
+function cellPairs(order: Int32Array, start: Int32Array, home: number, other: number, pos: Float64Array, shift: number[], charges: ArrayLike<number> | undefined, rc2: number, psiOfSquare: (r2: number) => number, size: Float64Array): number {
   let sum = 0
+  let comp = 0
+  let abs = 0
   for (let a = start[home]; a < start[home + 1]; a++) {
     const i = order[a]
     const qi = charges ? charges[i] : 1
@@ -351,10 +409,16 @@ function cellPairs(order: Int32Array, start: Int32Array, home: number, other: nu
       const r2 = dx * dx + dy * dy + dz * dz
       if (r2 >= rc2) continue
       if (r2 === 0) throw new EngineInputError(`points ${Math.min(i, j)} and ${Math.max(i, j)} coincide on the torus`, { indices: [Math.min(i, j), Math.max(i, j)] })
-      sum += qi * (charges ? charges[j] : 1) * psi(Math.sqrt(r2))
+      const t = qi * (charges ? charges[j] : 1) * psiOfSquare(r2)
+      // Neumaier's compensated addition: a cell pair may hold 10⁵ terms
+      const next = sum + t
+      comp += Math.abs(sum) >= Math.abs(t) ? sum - next + t : t - next + sum
+      sum = next
+      abs += Math.abs(t)
     }
   }
-  return sum
+  size[0] += abs
+  return sum + comp
 }
 
 /** Σ_{k≠0} w_k |Σ_j q_j e^{ik·x_j}|² over the half space of k (the weights carry the factor 2). With
@@ -380,8 +444,14 @@ function reciprocalSum(setup: Setup, points: ArrayLike<number>, charges: ArrayLi
       const { M, c, s } = tables[i]
       c[M] = 1
       s[M] = 0
+      // m f reduced mod 1 without rounding: f = hi + lo with hi a multiple of 2^−40, so m·hi is exact
+      // for m < 2^12 and only the small m·lo is rounded (2π m f directly would err by m·1e−16 in phase,
+      // noise of that size in every structure factor)
+      const hi = Math.round(f * 2 ** 40) / 2 ** 40
+      const lo = f - hi
       for (let m = 1; m <= M; m++) {
-        const phase = 2 * Math.PI * m * f
+        const mh = m * hi
+        const phase = 2 * Math.PI * (mh - Math.round(mh) + m * lo)
         c[M + m] = c[M - m] = Math.cos(phase)
         s[M + m] = Math.sin(phase)
         s[M - m] = -s[M + m]
@@ -419,9 +489,10 @@ function reciprocalSum(setup: Setup, points: ArrayLike<number>, charges: ArrayLi
       }
     }
   }
-  let sum = 0
-  for (let k = 0; k < K; k++) sum += setup.kWeights[k] * (re[k] * re[k] + im[k] * im[k])
-  return sum
+  // ~10⁵–10⁶ terms of one sign: compensated, or the rounding of the running sum would dominate
+  const sum = new CompensatedSum()
+  for (let k = 0; k < K; k++) sum.add(setup.kWeights[k] * (re[k] * re[k] + im[k] * im[k]))
+  return sum.value
 }
 
 /** The self-image constant c₀(Λ) = lim_{x→0} (G(x) − g(x)). */
@@ -470,7 +541,9 @@ export function torusEnergy(
     if (charges.length !== N) throw new EngineInputError(`there are ${charges.length} charges for ${N} points`)
     for (let i = 0; i < N; i++) if (!Number.isFinite(charges[i])) throw new EngineInputError(`charge ${i} is not a finite number`, { index: i })
   }
-  const setup = prepare(lattice, N, options)
+  const route = options.reciprocal ?? (N >= MESH_MIN_N ? 'mesh' : 'modes')
+  if (route !== 'mesh' && route !== 'modes') throw new EngineInputError(`the reciprocal sum is taken over 'modes' or on a 'mesh' (got '${String(route)}')`)
+  const setup = prepare(lattice, N, options, route)
   const q = (i: number): number => (charges ? charges[i] : 1)
   let sumQ = 0
   let sumQ2 = 0
@@ -481,32 +554,58 @@ export function torusEnergy(
     sumAbs += Math.abs(q(i))
   }
   const byCells = realPairsByCells(setup, lattice, points, charges, N)
-  let real = byCells ?? 0
+  let real = byCells?.value ?? 0
+  // Σ of the sizes of the real-space terms (ψ_α > 0), for the rounding estimate
+  let realSize = byCells?.size ?? 0
   if (byCells === undefined) {
     const r = new Float64Array(d)
+    const pairs = new CompensatedSum()
     for (let i = 0; i < N; i++) {
       for (let j = i + 1; j < N; j++) {
         reduce(setup, lattice, points, i * d, points, j * d, r)
         if (r.every(v => v === 0)) throw new EngineInputError(`points ${i} and ${j} coincide on the torus`, { indices: [i, j] })
-        real += 2 * q(i) * q(j) * realSum(setup, r, true)
+        const t = 2 * q(i) * q(j) * realSum(setup, r, true)
+        pairs.add(t)
+        realSize += Math.abs(t)
       }
     }
+    real = pairs.value
   }
   const zero = new Float64Array(d)
   const ownImages = realSum(setup, zero, false)
-  const c0 = ownImages + reciprocalSum(setup, zero, undefined, 1) + setup.meanOffset + setup.selfLimit
   real += sumQ2 * ownImages
-  const rec = reciprocalSum(setup, points, charges, N)
+  realSize += sumQ2 * Math.abs(ownImages)
+  let rec: number
+  let c0: number
+  let mesh: EwaldParameters['mesh']
+  let reciprocalVectors = setup.params.reciprocalVectors
+  if (route === 'mesh') {
+    const spec = { d, basis: lattice.basis, dual: setup.dual, kc: setup.params.reciprocalCutoff, mmax: setup.mmax, weight: setup.weight, volume: setup.volume }
+    const m = meshReciprocalSum(spec, chooseMesh(spec, N, setup.tail), points, charges, N)
+    rec = m.value
+    mesh = { sizes: m.sizes, splineOrder: m.order, bound: m.bound }
+    reciprocalVectors = m.waveVectors
+    // c₀ is a constant of the lattice: from its own (one-point) Ewald sum over wave vectors
+    c0 = selfImageConstant(lattice, { tolerance: setup.params.tolerance, interaction: options.interaction }).value
+  }
+  else {
+    rec = reciprocalSum(setup, points, charges, N)
+    c0 = ownImages + reciprocalSum(setup, zero, undefined, 1) + setup.meanOffset + setup.selfLimit
+  }
   const background = setup.meanOffset * sumQ * sumQ
-  const value = real + rec + background + setup.selfLimit * sumQ2
+  const self = setup.selfLimit * sumQ2
+  const value = real + rec + background + self
+  // rounding: each real-space term carries up to PAIR_RELATIVE_ERROR (the functions and their tables),
+  // the other parts a few units of 1e−16 each (compensated sums), and the parts cancel down to the value
+  const rounding = PAIR_RELATIVE_ERROR * realSize + 1e-15 * (Math.abs(rec) + Math.abs(background) + Math.abs(self))
   return {
     value,
     c0,
     N,
     d,
     chargeTotal: sumQ,
-    parameters: { ...setup.params, realSpace: byCells === undefined ? 'pairs' : 'cells' },
-    errorEstimate: sumAbs * sumAbs * setup.tail,
+    parameters: { ...setup.params, reciprocalVectors, realSpace: byCells === undefined ? 'pairs' : 'cells', reciprocalSpace: route, ...(mesh ? { mesh } : {}) },
+    errorEstimate: sumAbs * sumAbs * setup.tail + (mesh?.bound ?? 0) + rounding,
     engineVersion: ENGINE_VERSION,
   }
 }
