@@ -8,7 +8,8 @@
 //      with the measured error
 //   4. a NumPy/SciPy peer (scipy.spatial.distance.pdist), when python3 has numpy and scipy
 //   5. torus energies (Ewald): the sum over wave vectors vs the spline mesh, 2-D log and 3-D Coulomb,
-//      with the difference of the two and their estimates, and the growth of the mesh route with N
+//      with the difference of the two and their estimates, the growth of the mesh route with N, and
+//      the cost of the forces
 //   6. samplers and statistics (bench/samplers.ts)
 // Usage: npx tsx bench/run.ts [--large] [--torus-only]
 import { execFileSync } from 'node:child_process'
@@ -22,7 +23,7 @@ import { nativeLogKernels, nativeLogSquaredSum } from '../shared/physics/fast/na
 import { treecodeEnergy } from '../shared/physics/fast/treecode'
 import { PairKernels, wasmPairSum } from '../shared/physics/fast/wasm'
 import { PairPool } from '../server/engine/pool'
-import { torusEnergy } from '../shared/physics/torus/ewald'
+import { torusEnergy, torusEnergyAndGradient } from '../shared/physics/torus/ewald'
 import { cubicLattice } from '../shared/physics/torus/lattice'
 import { benchSamplersAndStatistics } from './samplers'
 
@@ -183,6 +184,10 @@ function benchTorus(): void {
       if (last) line += `; time grows as N^${(Math.log(tM / last[1]) / Math.log(N / last[0])).toFixed(2)}`
       console.log(line)
       last = [N, tM]
+      if (N === sizes[sizes.length - 1]) {
+        const [, tG] = timed(() => torusEnergyAndGradient(lattice, points, { reciprocal: 'mesh' }))
+        console.log(`    energy and forces (closed form) on the mesh: ${tG.toFixed(3)} s, ${(tG / tM).toFixed(2)}× the energy alone`)
+      }
     }
   }
 }

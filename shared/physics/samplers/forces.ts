@@ -4,13 +4,13 @@
 // g = |x|^{−s} (and s = d − 2 for the Coulomb kernel) — elementary calculus. On the sphere the points
 // are kept in R³ and the chordal distance is used; the tangential part of the gradient is
 // (I − x xᵀ)∇H (the derivative along the sphere; e.g. Absil, Mahony & Sepulchre, Optimization
-// Algorithms on Matrix Manifolds, 2008, §3.6). On the torus ∇G is taken by central differences of the
-// Ewald Green function (torus/ewald.ts), (G(x + h e_k) − G(x − h e_k))/(2h), error O(h²).
+// Algorithms on Matrix Manifolds, 2008, §3.6). On the torus the gradient of H_T comes in closed form from
+// the Ewald sum (torus/ewald.ts, torusEnergyAndGradient: ψ_α′ in real space, the derivative of the
+// structure factors or of the mesh splines in reciprocal space).
 import type { Geometry, Kernel } from '../types'
 import type { Potential } from '../potentials/types'
 import { EngineInputError } from '../errors'
 import { assertKernel } from '../kernels'
-import { periodicGreen } from '../torus/ewald'
 import { cubicLattice } from '../torus/lattice'
 import type { Lattice } from '../torus/lattice'
 
@@ -128,25 +128,4 @@ export function energyAndGradient(points: Float64Array, N: number, d: number, ke
 export function torusLattice(geometry: Geometry): Lattice {
   if (geometry.kind !== 'torus' || (geometry.d !== 2 && geometry.d !== 3)) throw new EngineInputError('torus energies need a torus of dimension 2 or 3')
   return cubicLattice(geometry.d, geometry.L)
-}
-
-/** ∇_{x_i} H_T = 2 Σ_{j≠i} ∇G(x_i − x_j) on the torus, by central differences of G (step h = 1e−5·L). */
-export function torusGradient(points: Float64Array, N: number, d: number, lattice: Lattice, L: number, tolerance: number, grad: Float64Array): void {
-  grad.fill(0)
-  const h = 1e-5 * L
-  const x = new Float64Array(d)
-  for (let i = 0; i < N; i++) {
-    for (let j = i + 1; j < N; j++) {
-      for (let k = 0; k < d; k++) {
-        for (let c = 0; c < d; c++) x[c] = points[i * d + c] - points[j * d + c]
-        x[k] += h
-        const plus = periodicGreen(lattice, x, { tolerance })
-        x[k] -= 2 * h
-        const minus = periodicGreen(lattice, x, { tolerance })
-        const g = (2 * (plus - minus)) / (2 * h)
-        grad[i * d + k] += g
-        grad[j * d + k] -= g
-      }
-    }
-  }
 }

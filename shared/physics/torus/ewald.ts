@@ -119,6 +119,10 @@ interface Setup {
   weight: (k2: number) => number
   /** ψ_α as a function of r², from the tables of tables.ts (for the pair loops). */
   psiOfSquare: (r2: number) => number
+  /** ψ_α′(r)/r as a function of r² (∇ψ_α(|x|) = that times x), and ψ_α from the same evaluation into out[0]. */
+  factorOfSquare: (r2: number, out: Float64Array) => number
+  /** ψ_α′(r)/r by the special functions themselves (for the image sums). */
+  factor: (r: number) => number
   selfLimit: number
   /** The constant term of G: −(1/|Λ|) ∫ (g − ψ_α) regularised, i.e. −c_d/(4α|Λ|) (−2√(π/α)/|Λ| for the sheet). */
   meanOffset: number
@@ -185,6 +189,11 @@ function prepare(lattice: Lattice, N: number, options: EwaldOptions, route: 'mod
     ? (r: number) => erfc(Math.sqrt(alpha) * r) / r
     : (r: number) => 0.5 * expint1(alpha * r * r)
   const psiOfSquare = d === 3 || sheet ? erfcOverR(alpha, rc) : halfExpint(alpha, rc)
+  const factorOfSquare = d === 3 || sheet ? erfcOverRFactor(alpha, rc) : halfExpintFactor(alpha, rc)
+  // d/dr ½E₁(αr²) = −e^{−αr²}/r; d/dr erfc(√α r)/r = −erfc(√α r)/r² − 2√(α/π) e^{−αr²}/r (elementary)
+  const factor = d === 3 || sheet
+    ? (r: number) => -(erfc(Math.sqrt(alpha) * r) / r + 2 * Math.sqrt(alpha / Math.PI) * Math.exp(-alpha * r * r)) / (r * r)
+    : (r: number) => -Math.exp(-alpha * r * r) / (r * r)
   const selfLimit = d === 3 || sheet ? -2 * Math.sqrt(alpha / Math.PI) : -0.5 * (EULER_GAMMA + Math.log(alpha))
   const meanOffset = sheet ? -(2 * Math.sqrt(Math.PI / alpha)) / volume : -cd / (4 * alpha * volume)
   // continuum estimates of the neglected tails for one unit-charge pair
@@ -222,6 +231,8 @@ function prepare(lattice: Lattice, N: number, options: EwaldOptions, route: 'mod
     psi,
     weight,
     psiOfSquare,
+    factorOfSquare,
+    factor,
     selfLimit,
     meanOffset,
     tail,
@@ -245,6 +256,29 @@ function erfcOverR(alpha: number, rc: number): (r2: number) => number {
   return (r2: number) => {
     const r = Math.sqrt(r2)
     return (Math.exp(-alpha * r2) * table.evaluate(c * r)) / r
+  }
+}
+
+/** ψ = ½E₁(αr²) into out[0] and ψ′(r)/r = −e^{−αr²}/r². */
+function halfExpintFactor(alpha: number, rc: number): (r2: number, out: Float64Array) => number {
+  const psi = halfExpint(alpha, rc)
+  return (r2: number, out: Float64Array) => {
+    out[0] = psi(r2)
+    return -Math.exp(-alpha * r2) / r2
+  }
+}
+
+/** ψ = erfc(√α r)/r into out[0] and ψ′(r)/r = −(ψ + 2√(α/π) e^{−αr²})/r². */
+function erfcOverRFactor(alpha: number, rc: number): (r2: number, out: Float64Array) => number {
+  const c = Math.sqrt(alpha)
+  const table = scaledErfcTable(c * rc)
+  const two = 2 * Math.sqrt(alpha / Math.PI)
+  return (r2: number, out: Float64Array) => {
+    const r = Math.sqrt(r2)
+    const e = Math.exp(-alpha * r2)
+    const psi = (e * table.evaluate(c * r)) / r
+    out[0] = psi
+    return -(psi + two * e) / r2
   }
 }
 
@@ -326,7 +360,7 @@ function realSum(setup: Setup, x: Float64Array, includeOrigin: boolean): number 
  *  3^d neighbouring cells (translations across the cell's faces included). The same terms as the
  *  all-pairs loop, in another order, at a cost of about N·3^d·N/∏n_k pairs. Undefined when some
  *  n_k < 3 (the cut-off reaches across the cell; the caller sums all pairs). */
-function realPairsByCells(setup: Setup, lattice: Lattice, points: ArrayLike<number>, charges: ArrayLike<number> | undefined, N: number): { value: number, size: number } | undefined {
+function realPairsByCells(setup: Setup, lattice: Lattice, points: ArrayLike<number>, charges: ArrayLike<number> | undefined, N: number, gradient?: Float64Array): { value: number, size: number } | undefined {
   const d = setup.d
   const b = lattice.basis
   const dual = setup.dual
@@ -382,7 +416,9 @@ function realPairsByCells(setup: Setup, lattice: Lattice, points: ArrayLike<numb
         for (let c = 0; c < d && w !== 0; c++) shift[c] += w * b[k * d + c]
       }
       const other = (u[2] * n[1] + u[1]) * n[0] + u[0]
-      total.add(cellPairs(order, start, home, other, pos, shift, charges, rc * rc, setup.psiOfSquare, size))
+      total.add(gradient
+        ? cellPairsWithGradient(order, start, home, other, pos, shift, charges, rc * rc, setup.factorOfSquare, size, gradient, d)
+        : cellPairs(order, start, home, other, pos, shift, charges, rc * rc, setup.psiOfSquare, size))
     }
   }
   return { value: total.value, size: size[0] }
@@ -421,22 +457,122 @@ function cellPairs(order: Int32Array, start: Int32Array, home: number, other: nu
   return sum + comp
 }
 
+/** cellPairs, and for every term 2 q_i q_j ψ′(r)/r (x_i − x_j − shift) added to the gradient of point i
+ *  (each ordered pair is met once, and the term of (j, i) gives point j its share). */
+function cellPairsWithGradient(order: Int32Array, start: Int32Array, home: number, other: number, pos: Float64Array, shift: number[], charges: ArrayLike<number> | undefined, rc2: number, factorOfSquare: (r2: number, out: Float64Array) => number, size: Float64Array, gradient: Float64Array, d: number): number {
+  let sum = 0
+  let comp = 0
+  let abs = 0
+  const psi = new Float64Array(1)
+  for (let a = start[home]; a < start[home + 1]; a++) {
+    const i = order[a]
+    const qi = charges ? charges[i] : 1
+    const xi = pos[3 * i] - shift[0]
+    const yi = pos[3 * i + 1] - shift[1]
+    const zi = pos[3 * i + 2] - shift[2]
+    let gx = 0
+    let gy = 0
+    let gz = 0
+    for (let e = start[other]; e < start[other + 1]; e++) {
+      const j = order[e]
+      if (j === i) continue
+      const dx = xi - pos[3 * j]
+      const dy = yi - pos[3 * j + 1]
+      const dz = zi - pos[3 * j + 2]
+      const r2 = dx * dx + dy * dy + dz * dz
+      if (r2 >= rc2) continue
+      if (r2 === 0) throw new EngineInputError(`points ${Math.min(i, j)} and ${Math.max(i, j)} coincide on the torus`, { indices: [Math.min(i, j), Math.max(i, j)] })
+      const qq = qi * (charges ? charges[j] : 1)
+      const f = 2 * qq * factorOfSquare(r2, psi)
+      const t = qq * psi[0]
+      const next = sum + t
+      comp += Math.abs(sum) >= Math.abs(t) ? sum - next + t : t - next + sum
+      sum = next
+      abs += Math.abs(t)
+      gx += f * dx
+      gy += f * dy
+      gz += f * dz
+    }
+    gradient[i * d] += gx
+    gradient[i * d + 1] += gy
+    if (d === 3) gradient[i * d + 2] += gz
+  }
+  size[0] += abs
+  return sum + comp
+}
+
+/** Σ over real-space translations (origin included) of ψ_α′(r)/r (x + p) within the cut-off, into out. */
+function realGradientSum(setup: Setup, x: Float64Array, out: Float64Array): void {
+  const d = setup.d
+  const rc2 = setup.params.realCutoff * setup.params.realCutoff
+  const img = setup.images
+  out.fill(0)
+  const add = (shiftAt: number): void => {
+    let r2 = 0
+    for (let c = 0; c < d; c++) {
+      const t = x[c] + (shiftAt < 0 ? 0 : img[shiftAt + c])
+      r2 += t * t
+    }
+    if (!(r2 < rc2)) return
+    const f = setup.factor(Math.sqrt(r2))
+    for (let c = 0; c < d; c++) out[c] += f * (x[c] + (shiftAt < 0 ? 0 : img[shiftAt + c]))
+  }
+  add(-1)
+  for (let p = 0; p < img.length; p += d) add(p)
+}
+
 /** Σ_{k≠0} w_k |Σ_j q_j e^{ik·x_j}|² over the half space of k (the weights carry the factor 2). With
  *  k·x = 2π Σ_i m_i f_i(x) (f the fractional coordinates), e^{ik·x_j} is a product of one entry per
  *  direction from a table of e^{2πi m f} for the point, so each (k, point) costs a complex product
  *  (two in 3-D) instead of a cosine and a sine. */
-function reciprocalSum(setup: Setup, points: ArrayLike<number>, charges: ArrayLike<number> | undefined, N: number): number {
+function reciprocalSum(setup: Setup, points: ArrayLike<number>, charges: ArrayLike<number> | undefined, N: number, gradient?: Float64Array): number {
+  const d = setup.d
+  const K = setup.kWeights.length
+  const phases = pointPhases(setup)
+  const re = new Float64Array(K)
+  const im = new Float64Array(K)
+  for (let j = 0; j < N; j++) {
+    const { er, ei } = phases(points, j)
+    const q = charges ? charges[j] : 1
+    for (let k = 0; k < K; k++) {
+      re[k] += q * er[k]
+      im[k] += q * ei[k]
+    }
+  }
+  // ~10⁵–10⁶ terms of one sign: compensated, or the rounding of the running sum would dominate
+  const sum = new CompensatedSum()
+  for (let k = 0; k < K; k++) sum.add(setup.kWeights[k] * (re[k] * re[k] + im[k] * im[k]))
+  if (gradient) {
+    // ∇_j Σ_k w_k |S(k)|² = −2 q_j Σ_k w_k k Im(conj S(k) e^{ik·x_j}) (differentiating S)
+    const ks = setup.ks
+    const g = [0, 0, 0]
+    for (let j = 0; j < N; j++) {
+      const { er, ei } = phases(points, j)
+      g[0] = g[1] = g[2] = 0
+      for (let k = 0; k < K; k++) {
+        const coef = setup.kWeights[k] * (re[k] * ei[k] - im[k] * er[k])
+        for (let c = 0; c < d; c++) g[c] += coef * ks[k * d + c]
+      }
+      const q = charges ? charges[j] : 1
+      for (let c = 0; c < d; c++) gradient[j * d + c] -= 2 * q * g[c]
+    }
+  }
+  return sum.value
+}
+
+/** e^{ik·x_j} for every wave vector k of the setup, from one table of e^{2πi m f} per direction. */
+function pointPhases(setup: Setup): (points: ArrayLike<number>, j: number) => { er: Float64Array, ei: Float64Array } {
   const d = setup.d
   const K = setup.kWeights.length
   const { km, mmax, dual } = setup
-  const re = new Float64Array(K)
-  const im = new Float64Array(K)
   const tables = mmax.map(M => ({ M, c: new Float64Array(2 * M + 1), s: new Float64Array(2 * M + 1) }))
   // table indices m + M of every k, per direction
   const at = mmax.map((M, i) => Int32Array.from({ length: K }, (_, k) => km[k * d + i] + M))
   const [t0, t1, t2] = [tables[0], tables[1], tables[2] ?? tables[1]]
   const [a0, a1, a2] = [at[0], at[1], at[2] ?? at[1]]
-  for (let j = 0; j < N; j++) {
+  const er = new Float64Array(K)
+  const ei = new Float64Array(K)
+  return (points, j) => {
     for (let i = 0; i < d; i++) {
       let f = 0
       for (let c = 0; c < d; c++) f += dual[i * d + c] * points[j * d + c]
@@ -445,8 +581,7 @@ function reciprocalSum(setup: Setup, points: ArrayLike<number>, charges: ArrayLi
       c[M] = 1
       s[M] = 0
       // m f reduced mod 1 without rounding: f = hi + lo with hi a multiple of 2^−40, so m·hi is exact
-      // for m < 2^12 and only the small m·lo is rounded (2π m f directly would err by m·1e−16 in phase,
-      // noise of that size in every structure factor)
+      // for m < 2^12 and only the small m·lo is rounded
       const hi = Math.round(f * 2 ** 40) / 2 ** 40
       const lo = f - hi
       for (let m = 1; m <= M; m++) {
@@ -457,7 +592,6 @@ function reciprocalSum(setup: Setup, points: ArrayLike<number>, charges: ArrayLi
         s[M - m] = -s[M + m]
       }
     }
-    const q = charges ? charges[j] : 1
     const c0 = t0.c
     const s0 = t0.s
     const c1 = t1.c
@@ -468,8 +602,8 @@ function reciprocalSum(setup: Setup, points: ArrayLike<number>, charges: ArrayLi
         const y = s0[a0[k]]
         const u = c1[a1[k]]
         const v = s1[a1[k]]
-        re[k] += q * (x * u - y * v)
-        im[k] += q * (x * v + y * u)
+        er[k] = x * u - y * v
+        ei[k] = x * v + y * u
       }
     }
     else {
@@ -484,15 +618,12 @@ function reciprocalSum(setup: Setup, points: ArrayLike<number>, charges: ArrayLi
         const pi = x * v + y * u
         const g = c2[a2[k]]
         const h = s2[a2[k]]
-        re[k] += q * (pr * g - pi * h)
-        im[k] += q * (pr * h + pi * g)
+        er[k] = pr * g - pi * h
+        ei[k] = pr * h + pi * g
       }
     }
+    return { er, ei }
   }
-  // ~10⁵–10⁶ terms of one sign: compensated, or the rounding of the running sum would dominate
-  const sum = new CompensatedSum()
-  for (let k = 0; k < K; k++) sum.add(setup.kWeights[k] * (re[k] * re[k] + im[k] * im[k]))
-  return sum.value
 }
 
 /** The self-image constant c₀(Λ) = lim_{x→0} (G(x) − g(x)). */
@@ -528,6 +659,23 @@ export function torusEnergy(
   points: ArrayLike<number>,
   options: EwaldOptions & { charges?: ArrayLike<number> } = {},
 ): TorusEnergyResult {
+  return evaluate(lattice, points, options)
+}
+
+/** E_q as torusEnergy, and its gradient ∇_{x_i} E_q (flat, d per point) in closed form: the real-space
+ *  terms through ψ_α′, the reciprocal ones by differentiating the structure factors (wave vectors) or
+ *  the mesh splines (mesh.ts); the constant terms do not depend on the points. */
+export function torusEnergyAndGradient(
+  lattice: Lattice,
+  points: ArrayLike<number>,
+  options: EwaldOptions & { charges?: ArrayLike<number> } = {},
+): TorusEnergyResult & { gradient: Float64Array } {
+  const gradient = new Float64Array(points.length)
+  const result = evaluate(lattice, points, options, gradient)
+  return { ...result, gradient }
+}
+
+function evaluate(lattice: Lattice, points: ArrayLike<number>, options: EwaldOptions & { charges?: ArrayLike<number> }, gradient?: Float64Array): TorusEnergyResult {
   assertLattice(lattice)
   const d = lattice.d
   if (points.length % d !== 0) throw new EngineInputError(`the point list has ${points.length} numbers, not a multiple of d = ${d}`)
@@ -553,12 +701,13 @@ export function torusEnergy(
     sumQ2 += q(i) * q(i)
     sumAbs += Math.abs(q(i))
   }
-  const byCells = realPairsByCells(setup, lattice, points, charges, N)
+  const byCells = realPairsByCells(setup, lattice, points, charges, N, gradient)
   let real = byCells?.value ?? 0
   // Σ of the sizes of the real-space terms (ψ_α > 0), for the rounding estimate
   let realSize = byCells?.size ?? 0
   if (byCells === undefined) {
     const r = new Float64Array(d)
+    const gr = new Float64Array(d)
     const pairs = new CompensatedSum()
     for (let i = 0; i < N; i++) {
       for (let j = i + 1; j < N; j++) {
@@ -567,6 +716,13 @@ export function torusEnergy(
         const t = 2 * q(i) * q(j) * realSum(setup, r, true)
         pairs.add(t)
         realSize += Math.abs(t)
+        if (gradient) {
+          realGradientSum(setup, r, gr)
+          for (let c = 0; c < d; c++) {
+            gradient[i * d + c] += 2 * q(i) * q(j) * gr[c]
+            gradient[j * d + c] -= 2 * q(i) * q(j) * gr[c]
+          }
+        }
       }
     }
     real = pairs.value
@@ -581,7 +737,7 @@ export function torusEnergy(
   let reciprocalVectors = setup.params.reciprocalVectors
   if (route === 'mesh') {
     const spec = { d, basis: lattice.basis, dual: setup.dual, kc: setup.params.reciprocalCutoff, mmax: setup.mmax, weight: setup.weight, volume: setup.volume }
-    const m = meshReciprocalSum(spec, chooseMesh(spec, N, setup.tail), points, charges, N)
+    const m = meshReciprocalSum(spec, chooseMesh(spec, N, setup.tail), points, charges, N, gradient)
     rec = m.value
     mesh = { sizes: m.sizes, splineOrder: m.order, bound: m.bound }
     reciprocalVectors = m.waveVectors
@@ -589,7 +745,7 @@ export function torusEnergy(
     c0 = selfImageConstant(lattice, { tolerance: setup.params.tolerance, interaction: options.interaction }).value
   }
   else {
-    rec = reciprocalSum(setup, points, charges, N)
+    rec = reciprocalSum(setup, points, charges, N, gradient)
     c0 = ownImages + reciprocalSum(setup, zero, undefined, 1) + setup.meanOffset + setup.selfLimit
   }
   const background = setup.meanOffset * sumQ * sumQ

@@ -310,3 +310,93 @@ export function realSpectrumPruned(data: Float64Array, dims: readonly number[], 
   for (let line = 0; line < (k0 + 1) * w1; line++) fft(p2, br.subarray(line * K2, (line + 1) * K2), bi.subarray(line * K2, (line + 1) * K2), wr.subarray(0, K2), wi.subarray(0, K2))
   return { re: br, im: bi }
 }
+
+/** Inverse transform for realSpectrumPruned's layout: Φ(l) = 2 Re Σ F(u) e^{+2πi u·l/K} over the kept
+ *  frequencies (u_0 ≥ 0), on the whole mesh (first axis fastest). The later axes are transformed
+ *  back first; along the first axis, F(u_0) and conj F(u_0) at −u_0 make a Hermitian line whose
+ *  transform is real, so two lines go through one complex transform (common practice). Inverse
+ *  transforms use conj(FFT(conj x)). */
+export function realFieldFromPruned(fr: Float64Array, fi: Float64Array, dims: readonly number[], keep: readonly number[]): Float64Array {
+  const d = dims.length
+  const K0 = dims[0]
+  const K1 = dims[1]
+  const K2 = d === 3 ? dims[2] : 1
+  const k0 = keep[0]
+  const lines = K1 * K2
+  const wr = new Float64Array(Math.max(K0, K1, K2))
+  const wi = new Float64Array(Math.max(K0, K1, K2))
+  const inverse = (plan: FftPlan, re: Float64Array, im: Float64Array): void => {
+    for (let t = 0; t < re.length; t++) im[t] = -im[t]
+    fft(plan, re, im, wr.subarray(0, re.length), wi.subarray(0, re.length))
+    for (let t = 0; t < re.length; t++) im[t] = -im[t]
+  }
+  // ar/ai: index u0 · lines + (l1 + K1 l2), the first axis still in frequency
+  let ar: Float64Array
+  let ai: Float64Array
+  const p1 = fftPlan(K1)
+  if (d === 2) {
+    ar = fr.slice()
+    ai = fi.slice()
+    for (let u = 0; u <= k0; u++) inverse(p1, ar.subarray(u * K1, (u + 1) * K1), ai.subarray(u * K1, (u + 1) * K1))
+  }
+  else {
+    const k1 = keep[1]
+    const w1 = 2 * k1 + 1
+    const br = fr.slice()
+    const bi = fi.slice()
+    const p2 = fftPlan(K2)
+    for (let line = 0; line < (k0 + 1) * w1; line++) inverse(p2, br.subarray(line * K2, (line + 1) * K2), bi.subarray(line * K2, (line + 1) * K2))
+    ar = new Float64Array((k0 + 1) * lines)
+    ai = new Float64Array((k0 + 1) * lines)
+    const lr = new Float64Array(K1)
+    const li = new Float64Array(K1)
+    for (let u = 0; u <= k0; u++) {
+      for (let l2 = 0; l2 < K2; l2++) {
+        lr.fill(0)
+        li.fill(0)
+        for (let m1 = -k1; m1 <= k1; m1++) {
+          const from = (u * w1 + m1 + k1) * K2 + l2
+          const to = m1 < 0 ? m1 + K1 : m1
+          lr[to] = br[from]
+          li[to] = bi[from]
+        }
+        inverse(p1, lr, li)
+        const o = u * lines + l2 * K1
+        ar.set(lr, o)
+        ai.set(li, o)
+      }
+    }
+  }
+  // the first axis: Hermitian lines, two per complex transform
+  const out = new Float64Array(K0 * lines)
+  const p0 = fftPlan(K0)
+  const zr = new Float64Array(K0)
+  const zi = new Float64Array(K0)
+  for (let line = 0; line < lines; line += 2) {
+    const two = line + 1 < lines
+    zr.fill(0)
+    zi.fill(0)
+    for (let u = 0; u <= k0; u++) {
+      // H_a(u) = F_a(u), H_a(−u) = conj F_a(u) (u = 0: 2 Re F_a(0)); Z = H_a + i H_b
+      const xr = ar[u * lines + line]
+      const xi = ai[u * lines + line]
+      const yr = two ? ar[u * lines + line + 1] : 0
+      const yi = two ? ai[u * lines + line + 1] : 0
+      if (u === 0) {
+        zr[0] = 2 * xr
+        zi[0] = 2 * yr
+        continue
+      }
+      zr[u] = xr - yi
+      zi[u] = xi + yr
+      zr[K0 - u] = xr + yi
+      zi[K0 - u] = -xi + yr
+    }
+    inverse(p0, zr, zi)
+    for (let t = 0; t < K0; t++) {
+      out[line * K0 + t] = zr[t]
+      if (two) out[(line + 1) * K0 + t] = zi[t]
+    }
+  }
+  return out
+}

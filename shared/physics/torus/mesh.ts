@@ -16,7 +16,7 @@
 // that this bound stays below the Ewald tail estimate; the bound actually reached is reported.
 import { EngineInputError } from '../errors'
 import { CompensatedSum } from '../summation'
-import { nextFftSize, realSpectrumPruned } from './fft'
+import { nextFftSize, realFieldFromPruned, realSpectrumPruned } from './fft'
 
 export interface MeshSpec {
   readonly d: 2 | 3
@@ -157,8 +157,11 @@ export function chooseMesh(spec: MeshSpec, N: number, target: number): MeshChoic
   return best.choice
 }
 
-/** Σ_k w_k |S(k)|² by the spline mesh, with its bound. */
-export function meshReciprocalSum(spec: MeshSpec, choice: MeshChoice, points: ArrayLike<number>, charges: ArrayLike<number> | undefined, N: number): MeshResult {
+/** Σ_k w_k |S(k)|² by the spline mesh, with its bound; with `gradient` (N·d values), its gradient in
+ *  the point coordinates is added there: ∂E/∂x_i = Σ_l ∂Q(l)/∂x_i Φ(l), Φ(l) = 2 Re Σ_k w_k B(m) Q̂(m)
+ *  e^{2πi m·l/K}, one inverse transform, and ∂/∂x of the splines from M_p′(x) = M_{p−1}(x) − M_{p−1}(x − 1)
+ *  (de Boor 1978, ch. IX; the force of Essmann et al. 1995, §II). */
+export function meshReciprocalSum(spec: MeshSpec, choice: MeshChoice, points: ArrayLike<number>, charges: ArrayLike<number> | undefined, N: number, gradient?: Float64Array): MeshResult {
   const { d, dual } = spec
   const p = choice.order
   const K = choice.sizes
@@ -265,6 +268,8 @@ export function meshReciprocalSum(spec: MeshSpec, choice: MeshChoice, points: Ar
   const B = K.slice(0, d).map((k, i) => splineModuli(k, p, M[i]))
   const E = K.slice(0, d).map((k, i) => Float64Array.from({ length: 2 * M[i] + 1 }, (_, t) => splineAliasBound((t - M[i]) / k, p)))
   const kc2 = spec.kc * spec.kc
+  const fr = gradient ? new Float64Array(sr.length) : undefined
+  const fi = gradient ? new Float64Array(sr.length) : undefined
   // ~10⁵–10⁷ terms of one sign: compensated, or the rounding of the running sum would dominate
   const value = new CompensatedSum()
   let boundSum = 0
@@ -292,11 +297,92 @@ export function meshReciprocalSum(spec: MeshSpec, choice: MeshChoice, points: Ar
         }
         const wk = spec.weight(k2)
         value.add(wk * bm * (sr[idx] * sr[idx] + si[idx] * si[idx]))
+        if (fr && fi) {
+          fr[idx] = wk * bm * sr[idx]
+          fi[idx] = wk * bm * si[idx]
+        }
         const eps = grow - 1
         boundSum += wk * (2 * eps + eps * eps)
         count++
       }
     }
   }
+  if (gradient && fr && fi) meshGradient(spec, choice, realFieldFromPruned(fr, fi, d === 3 ? [K0, K1, K2] : [K0, K1], spec.mmax), points, charges, N, gradient)
   return { value: value.value, bound: sumAbs * sumAbs * boundSum, sizes: K.slice(0, d), order: p, waveVectors: 2 * count }
+}
+
+/** Adds q_i Σ_a K_a b*_a Σ_l ∂_a[Π M_p](u_i K − l) Φ(l) to gradient[i·d …]. */
+function meshGradient(spec: MeshSpec, choice: MeshChoice, phi: Float64Array, points: ArrayLike<number>, charges: ArrayLike<number> | undefined, N: number, gradient: Float64Array): void {
+  const { d, dual } = spec
+  const p = choice.order
+  const K = choice.sizes
+  const K0 = K[0]
+  const K1 = K[1]
+  const w = [new Float64Array(p), new Float64Array(p), new Float64Array(p)]
+  const dw = [new Float64Array(p), new Float64Array(p), new Float64Array(p)]
+  const lower = new Float64Array(p)
+  const at = [new Int32Array(p), new Int32Array(p), new Int32Array(p)]
+  const g = [0, 0, 0]
+  for (let j = 0; j < N; j++) {
+    for (let i = 0; i < d; i++) {
+      let u = 0
+      for (let c = 0; c < d; c++) u += dual[i * d + c] * points[j * d + c]
+      u -= Math.floor(u)
+      const t = u * K[i]
+      let base = Math.floor(t)
+      const frac = t - base
+      bsplineWeights(p, frac, w[i])
+      bsplineWeights(p - 1, frac, lower)
+      lower[p - 1] = 0
+      for (let s = 0; s < p; s++) dw[i][s] = lower[s] - (s > 0 ? lower[s - 1] : 0)
+      if (base >= K[i]) base -= K[i]
+      for (let s = 0; s < p; s++) {
+        let l = base - s
+        while (l < 0) l += K[i]
+        at[i][s] = l
+      }
+    }
+    g[0] = g[1] = g[2] = 0
+    const [w0, w1, w2] = w
+    const [d0, d1, d2] = dw
+    const [a0, a1, a2] = at
+    if (d === 2) {
+      for (let b = 0; b < p; b++) {
+        const row = a1[b] * K0
+        let s0 = 0
+        let s1 = 0
+        for (let a = 0; a < p; a++) {
+          const v = phi[row + a0[a]]
+          s0 += v * d0[a]
+          s1 += v * w0[a]
+        }
+        g[0] += s0 * w1[b]
+        g[1] += s1 * d1[b]
+      }
+    }
+    else {
+      for (let c = 0; c < p; c++) {
+        const plane = a2[c] * K1
+        for (let b = 0; b < p; b++) {
+          const row = (plane + a1[b]) * K0
+          let s0 = 0
+          let s1 = 0
+          for (let a = 0; a < p; a++) {
+            const v = phi[row + a0[a]]
+            s0 += v * d0[a]
+            s1 += v * w0[a]
+          }
+          g[0] += s0 * w1[b] * w2[c]
+          g[1] += s1 * d1[b] * w2[c]
+          g[2] += s1 * w1[b] * d2[c]
+        }
+      }
+    }
+    const q = charges ? charges[j] : 1
+    for (let c = 0; c < d; c++) {
+      let v = 0
+      for (let a = 0; a < d; a++) v += K[a] * g[a] * dual[a * d + c]
+      gradient[j * d + c] += q * v
+    }
+  }
 }
