@@ -15,6 +15,8 @@ export default defineConfig({
           name: 'unit',
           include: ['tests/unit/**/*.test.ts', 'tests/reference/**/*.test.ts'],
           environment: 'node',
+          // numerical tests take a few seconds; on a loaded 2-core machine the default 5 s is too tight
+          testTimeout: 20_000,
         },
       },
       {

@@ -416,50 +416,18 @@ function realPairsByCells(setup: Setup, lattice: Lattice, points: ArrayLike<numb
         for (let c = 0; c < d && w !== 0; c++) shift[c] += w * b[k * d + c]
       }
       const other = (u[2] * n[1] + u[1]) * n[0] + u[0]
-      total.add(gradient
-        ? cellPairsWithGradient(order, start, home, other, pos, shift, charges, rc * rc, setup.factorOfSquare, size, gradient, d)
-        : cellPairs(order, start, home, other, pos, shift, charges, rc * rc, setup.psiOfSquare, size))
+      total.add(cellPairs(order, start, home, other, pos, shift, charges, rc * rc, setup, size, gradient))
     }
   }
   return { value: total.value, size: size[0] }
 }
 
 /** Σ q_i q_j ψ(|x_i − (x_j + shift)|) (ψ from its tables) over i in cell `home`, j ≠ i in cell `other`,
- *  within the cut-off; Σ |q_i q_j| ψ is added to size[0]. */
-function cellPairs(order: Int32Array, start: Int32Array, home: number, other: number, pos: Float64Array, shift: number[], charges: ArrayLike<number> | undefined, rc2: number, psiOfSquare: (r2: number) => number, size: Float64Array): number {
-  let sum = 0
-  let comp = 0
-  let abs = 0
-  for (let a = start[home]; a < start[home + 1]; a++) {
-    const i = order[a]
-    const qi = charges ? charges[i] : 1
-    const xi = pos[3 * i] - shift[0]
-    const yi = pos[3 * i + 1] - shift[1]
-    const zi = pos[3 * i + 2] - shift[2]
-    for (let e = start[other]; e < start[other + 1]; e++) {
-      const j = order[e]
-      if (j === i) continue
-      const dx = xi - pos[3 * j]
-      const dy = yi - pos[3 * j + 1]
-      const dz = zi - pos[3 * j + 2]
-      const r2 = dx * dx + dy * dy + dz * dz
-      if (r2 >= rc2) continue
-      if (r2 === 0) throw new EngineInputError(`points ${Math.min(i, j)} and ${Math.max(i, j)} coincide on the torus`, { indices: [Math.min(i, j), Math.max(i, j)] })
-      const t = qi * (charges ? charges[j] : 1) * psiOfSquare(r2)
-      // Neumaier's compensated addition: a cell pair may hold 10⁵ terms
-      const next = sum + t
-      comp += Math.abs(sum) >= Math.abs(t) ? sum - next + t : t - next + sum
-      sum = next
-      abs += Math.abs(t)
-    }
-  }
-  size[0] += abs
-  return sum + comp
-}
-
-/** cellPairs, and for every term 2 q_i q_j ψ′(r)/r (x_i − x_j − shift) added to the gradient of point i
- *  (each ordered pair is met once, and the term of (j, i) gives point j its share). */
-function cellPairsWithGradient(order: Int32Array, start: Int32Array, home: number, other: number, pos: Float64Array, shift: number[], charges: ArrayLike<number> | undefined, rc2: number, factorOfSquare: (r2: number, out: Float64Array) => number, size: Float64Array, gradient: Float64Array, d: number): number {
+ *  within the cut-off; Σ |q_i q_j| ψ is added to size[0]. With `gradient`, every term's
+ *  2 q_i q_j ψ′(r)/r (x_i − x_j − shift) is added to the gradient of point i (each ordered pair is met
+ *  once, and the term of (j, i) gives point j its share). */
+function cellPairs(order: Int32Array, start: Int32Array, home: number, other: number, pos: Float64Array, shift: number[], charges: ArrayLike<number> | undefined, rc2: number, setup: Setup, size: Float64Array, gradient: Float64Array | undefined): number {
+  const { psiOfSquare, factorOfSquare, d } = setup
   let sum = 0
   let comp = 0
   let abs = 0
@@ -483,19 +451,28 @@ function cellPairsWithGradient(order: Int32Array, start: Int32Array, home: numbe
       if (r2 >= rc2) continue
       if (r2 === 0) throw new EngineInputError(`points ${Math.min(i, j)} and ${Math.max(i, j)} coincide on the torus`, { indices: [Math.min(i, j), Math.max(i, j)] })
       const qq = qi * (charges ? charges[j] : 1)
-      const f = 2 * qq * factorOfSquare(r2, psi)
-      const t = qq * psi[0]
+      let t: number
+      if (gradient) {
+        const f = 2 * qq * factorOfSquare(r2, psi)
+        t = qq * psi[0]
+        gx += f * dx
+        gy += f * dy
+        gz += f * dz
+      }
+      else {
+        t = qq * psiOfSquare(r2)
+      }
+      // Neumaier's compensated addition: a cell pair may hold 10⁵ terms
       const next = sum + t
       comp += Math.abs(sum) >= Math.abs(t) ? sum - next + t : t - next + sum
       sum = next
       abs += Math.abs(t)
-      gx += f * dx
-      gy += f * dy
-      gz += f * dz
     }
-    gradient[i * d] += gx
-    gradient[i * d + 1] += gy
-    if (d === 3) gradient[i * d + 2] += gz
+    if (gradient) {
+      gradient[i * d] += gx
+      gradient[i * d + 1] += gy
+      if (d === 3) gradient[i * d + 2] += gz
+    }
   }
   size[0] += abs
   return sum + comp

@@ -177,6 +177,7 @@ export function meshReciprocalSum(spec: MeshSpec, choice: MeshChoice, points: Ar
   // spread the charges: Q(l) = Σ_j q_j Π_i M_p(u_ji K_i − l_i), l_i taken mod K_i
   const w = [new Float64Array(p), new Float64Array(p), new Float64Array(p)]
   const at = [new Int32Array(p), new Int32Array(p), new Int32Array(p)]
+  const fracs = [0, 0, 0]
   let sumAbs = 0
   // points in the order of the mesh row they start in (last axis slowest), so that consecutive points
   // touch the same rows of the mesh while those are in cache (counting sort, O(N + K))
@@ -199,22 +200,7 @@ export function meshReciprocalSum(spec: MeshSpec, choice: MeshChoice, points: Ar
   for (let j = 0; j < N; j++) sequence[inRow[rowOf[j]]++] = j
   for (let o = 0; o < N; o++) {
     const j = sequence[o]
-    for (let i = 0; i < d; i++) {
-      let u = 0
-      for (let c = 0; c < d; c++) u += dual[i * d + c] * points[j * d + c]
-      u -= Math.floor(u)
-      const t = u * K[i]
-      let base = Math.floor(t)
-      const frac = t - base
-      bsplineWeights(p, frac, w[i])
-      if (base >= K[i]) base -= K[i]
-      const ai = at[i]
-      for (let s = 0; s < p; s++) {
-        let l = base - s
-        while (l < 0) l += K[i]
-        ai[s] = l
-      }
-    }
+    splineStencil(spec, choice, points, j, w, at, fracs)
     const q = charges ? charges[j] : 1
     sumAbs += Math.abs(q)
     const w0 = w[0]
@@ -311,6 +297,31 @@ export function meshReciprocalSum(spec: MeshSpec, choice: MeshChoice, points: Ar
   return { value: value.value, bound: sumAbs * sumAbs * boundSum, sizes: K.slice(0, d), order: p, waveVectors: 2 * count }
 }
 
+/** For point j and each direction i: the spline weights M_p(frac + s) into w[i], their mesh indices
+ *  (base − s) mod K_i into at[i], s < p, and frac into fracs[i] (u K_i = base + frac). */
+function splineStencil(spec: MeshSpec, choice: MeshChoice, points: ArrayLike<number>, j: number, w: Float64Array[], at: Int32Array[], fracs: number[]): void {
+  const { d, dual } = spec
+  const p = choice.order
+  const K = choice.sizes
+  for (let i = 0; i < d; i++) {
+    let u = 0
+    for (let c = 0; c < d; c++) u += dual[i * d + c] * points[j * d + c]
+    u -= Math.floor(u)
+    const t = u * K[i]
+    let base = Math.floor(t)
+    const frac = t - base
+    fracs[i] = frac
+    bsplineWeights(p, frac, w[i])
+    if (base >= K[i]) base -= K[i]
+    const ai = at[i]
+    for (let s = 0; s < p; s++) {
+      let l = base - s
+      while (l < 0) l += K[i]
+      ai[s] = l
+    }
+  }
+}
+
 /** Adds q_i Σ_a K_a b*_a Σ_l ∂_a[Π M_p](u_i K − l) Φ(l) to gradient[i·d …]. */
 function meshGradient(spec: MeshSpec, choice: MeshChoice, phi: Float64Array, points: ArrayLike<number>, charges: ArrayLike<number> | undefined, N: number, gradient: Float64Array): void {
   const { d, dual } = spec
@@ -323,24 +334,13 @@ function meshGradient(spec: MeshSpec, choice: MeshChoice, phi: Float64Array, poi
   const lower = new Float64Array(p)
   const at = [new Int32Array(p), new Int32Array(p), new Int32Array(p)]
   const g = [0, 0, 0]
+  const fracs = [0, 0, 0]
   for (let j = 0; j < N; j++) {
+    splineStencil(spec, choice, points, j, w, at, fracs)
     for (let i = 0; i < d; i++) {
-      let u = 0
-      for (let c = 0; c < d; c++) u += dual[i * d + c] * points[j * d + c]
-      u -= Math.floor(u)
-      const t = u * K[i]
-      let base = Math.floor(t)
-      const frac = t - base
-      bsplineWeights(p, frac, w[i])
-      bsplineWeights(p - 1, frac, lower)
+      bsplineWeights(p - 1, fracs[i], lower)
       lower[p - 1] = 0
       for (let s = 0; s < p; s++) dw[i][s] = lower[s] - (s > 0 ? lower[s - 1] : 0)
-      if (base >= K[i]) base -= K[i]
-      for (let s = 0; s < p; s++) {
-        let l = base - s
-        while (l < 0) l += K[i]
-        at[i][s] = l
-      }
     }
     g[0] = g[1] = g[2] = 0
     const [w0, w1, w2] = w
