@@ -30,7 +30,7 @@ import { CANONICAL_CONVENTION } from '../conventions'
 import type { EnergyConvention } from '../conventions'
 import { ENGINE_VERSION } from '../version'
 import { energy } from '../energy'
-import { periodicGreen, torusEnergy } from '../torus/ewald'
+import { periodicGreenFunction, torusEnergy } from '../torus/ewald'
 import type { Lattice } from '../torus/lattice'
 import { CompensatedSum } from '../summation'
 import { coordinateDimension, particleGradient, radialKernel, torusLattice } from './forces'
@@ -210,6 +210,8 @@ export function runMcmc(options: McmcOptions, start: { rng: Rng } | { resume: Mc
   const stopAt = Math.min(total, options.stopAtIteration ?? total)
   const beta = model.beta
   const tolerance = options.ewaldTolerance ?? 1e-12
+  // the torus Green function, its Ewald setup built once for every move
+  const green = lattice !== undefined ? periodicGreenFunction(lattice, { tolerance }) : undefined
   const potential = model.potential
   const L = geometry.kind === 'torus' ? geometry.L : 0
 
@@ -288,7 +290,7 @@ export function runMcmc(options: McmcOptions, start: { rng: Rng } | { resume: Mc
   /** ΔH for moving point i to y; NaN when the move is impossible. */
   const deltaH = (i: number): number => {
     const acc = new CompensatedSum()
-    if (lattice !== undefined) {
+    if (green !== undefined) {
       for (let j = 0; j < N; j++) {
         if (j === i) continue
         let same = true
@@ -298,9 +300,9 @@ export function runMcmc(options: McmcOptions, start: { rng: Rng } | { resume: Mc
           if (Math.abs(w - Math.round(w)) > 0) same = false
         }
         if (same) return NaN
-        const gNew = periodicGreen(lattice, diff, { tolerance })
+        const gNew = green(diff)
         for (let k = 0; k < d; k++) diff[k] = points[i * d + k] - points[j * d + k]
-        acc.add(2 * (gNew - periodicGreen(lattice, diff, { tolerance })))
+        acc.add(2 * (gNew - green(diff)))
       }
       return acc.value
     }

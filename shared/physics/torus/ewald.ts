@@ -613,20 +613,28 @@ export function selfImageConstant(lattice: Lattice, options: EwaldOptions = {}):
 
 /** The periodic Green function G(x) (zero mean over the cell) at a displacement x ∉ Λ. */
 export function periodicGreen(lattice: Lattice, x: ArrayLike<number>, options: EwaldOptions = {}): number {
+  return periodicGreenFunction(lattice, options)(x)
+}
+
+/** G as a function, its Ewald setup (images, wave vectors, weights) prepared once for many calls. */
+export function periodicGreenFunction(lattice: Lattice, options: EwaldOptions = {}): (x: ArrayLike<number>) => number {
   const setup = prepare(lattice, 1, options)
   const d = setup.d
-  if (x.length !== d) throw new EngineInputError(`the displacement needs ${d} coordinates (got ${x.length})`)
   const r = new Float64Array(d)
-  reduce(setup, lattice, x, 0, new Float64Array(d), 0, r)
-  if (r.every(v => v === 0)) throw new EngineInputError('G is infinite at a lattice point (the displacement is a period of the cell)')
-  // e^{ik·x} + e^{−ik·x} = 2 cos(k·x): the weights already carry the factor 2
-  let rec = 0
-  for (let k = 0, w = 0; k < setup.ks.length; k += d, w++) {
-    let phase = 0
-    for (let c = 0; c < d; c++) phase += setup.ks[k + c] * r[c]
-    rec += setup.kWeights[w] * Math.cos(phase)
+  const origin = new Float64Array(d)
+  return (x) => {
+    if (x.length !== d) throw new EngineInputError(`the displacement needs ${d} coordinates (got ${x.length})`)
+    reduce(setup, lattice, x, 0, origin, 0, r)
+    if (r.every(v => v === 0)) throw new EngineInputError('G is infinite at a lattice point (the displacement is a period of the cell)')
+    // e^{ik·x} + e^{−ik·x} = 2 cos(k·x): the weights already carry the factor 2
+    let rec = 0
+    for (let k = 0, w = 0; k < setup.ks.length; k += d, w++) {
+      let phase = 0
+      for (let c = 0; c < d; c++) phase += setup.ks[k + c] * r[c]
+      rec += setup.kWeights[w] * Math.cos(phase)
+    }
+    return realSum(setup, r, true) + rec + setup.meanOffset
   }
-  return realSum(setup, r, true) + rec + setup.meanOffset
 }
 
 /** E_q = Σ_{i≠j} q_i q_j G(x_i − x_j) + c₀ Σ q_i² for points (flat, d per point) on R^d/Λ;
