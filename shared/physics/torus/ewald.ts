@@ -121,7 +121,7 @@ interface Setup {
   psiOfSquare: (r2: number) => number
   /** ψ_α′(r)/r as a function of r² (∇ψ_α(|x|) = that times x), and ψ_α from the same evaluation into out[0]. */
   factorOfSquare: (r2: number, out: Float64Array) => number
-  /** ψ_α′(r)/r by the special functions themselves (for the image sums). */
+  /** ψ_α′(r)/r by the special functions themselves (for the image sums of realSum). */
   factor: (r: number) => number
   selfLimit: number
   /** The constant term of G: −(1/|Λ|) ∫ (g − ψ_α) regularised, i.e. −c_d/(4α|Λ|) (−2√(π/α)/|Λ| for the sheet). */
@@ -259,12 +259,15 @@ function erfcOverR(alpha: number, rc: number): (r2: number) => number {
   }
 }
 
-/** ψ = ½E₁(αr²) into out[0] and ψ′(r)/r = −e^{−αr²}/r². */
+/** ψ = ½E₁(αr²) into out[0] (as halfExpint) and ψ′(r)/r = −e^{−αr²}/r², one exponential for both. */
 function halfExpintFactor(alpha: number, rc: number): (r2: number, out: Float64Array) => number {
-  const psi = halfExpint(alpha, rc)
+  const small = halfExpintPlusLogTable()
+  const large = scaledExpintTable(alpha * rc * rc)
   return (r2: number, out: Float64Array) => {
-    out[0] = psi(r2)
-    return -Math.exp(-alpha * r2) / r2
+    const x = alpha * r2
+    const e = Math.exp(-x)
+    out[0] = x < 1 ? small.evaluate(x) - 0.5 * Math.log(x) : 0.5 * e * large.evaluate(x)
+    return -e / r2
   }
 }
 
@@ -331,24 +334,28 @@ function reduce(setup: Setup, lattice: Lattice, x: ArrayLike<number>, xo: number
   }
 }
 
-/** Σ over real-space translations (p = 0 included when includeOrigin) of ψ_α(|x + p|) within the cut-off. */
-function realSum(setup: Setup, x: Float64Array, includeOrigin: boolean): number {
+/** Σ over real-space translations (p = 0 included when includeOrigin) of ψ_α(|x + p|) within the
+ *  cut-off; with `gradient`, Σ ψ_α′(r)/r (x + p) over the same terms is written there. */
+function realSum(setup: Setup, x: Float64Array, includeOrigin: boolean, gradient?: Float64Array): number {
   const d = setup.d
   const rc2 = setup.params.realCutoff * setup.params.realCutoff
   const img = setup.images
+  gradient?.fill(0)
   let sum = 0
-  if (includeOrigin) {
-    let r2 = 0
-    for (let c = 0; c < d; c++) r2 += x[c] * x[c]
-    if (r2 < rc2) sum += setup.psi(Math.sqrt(r2))
-  }
-  for (let p = 0; p < img.length; p += d) {
+  // p = −d stands for the origin
+  for (let p = includeOrigin ? -d : 0; p < img.length; p += d) {
     let r2 = 0
     for (let c = 0; c < d; c++) {
-      const t = x[c] + img[p + c]
+      const t = x[c] + (p < 0 ? 0 : img[p + c])
       r2 += t * t
     }
-    if (r2 < rc2) sum += setup.psi(Math.sqrt(r2))
+    if (!(r2 < rc2)) continue
+    const r = Math.sqrt(r2)
+    sum += setup.psi(r)
+    if (gradient) {
+      const f = setup.factor(r)
+      for (let c = 0; c < d; c++) gradient[c] += f * (x[c] + (p < 0 ? 0 : img[p + c]))
+    }
   }
   return sum
 }
@@ -476,26 +483,6 @@ function cellPairs(order: Int32Array, start: Int32Array, home: number, other: nu
   }
   size[0] += abs
   return sum + comp
-}
-
-/** Σ over real-space translations (origin included) of ψ_α′(r)/r (x + p) within the cut-off, into out. */
-function realGradientSum(setup: Setup, x: Float64Array, out: Float64Array): void {
-  const d = setup.d
-  const rc2 = setup.params.realCutoff * setup.params.realCutoff
-  const img = setup.images
-  out.fill(0)
-  const add = (shiftAt: number): void => {
-    let r2 = 0
-    for (let c = 0; c < d; c++) {
-      const t = x[c] + (shiftAt < 0 ? 0 : img[shiftAt + c])
-      r2 += t * t
-    }
-    if (!(r2 < rc2)) return
-    const f = setup.factor(Math.sqrt(r2))
-    for (let c = 0; c < d; c++) out[c] += f * (x[c] + (shiftAt < 0 ? 0 : img[shiftAt + c]))
-  }
-  add(-1)
-  for (let p = 0; p < img.length; p += d) add(p)
 }
 
 /** Σ_{k≠0} w_k |Σ_j q_j e^{ik·x_j}|² over the half space of k (the weights carry the factor 2). With
@@ -698,11 +685,10 @@ function evaluate(lattice: Lattice, points: ArrayLike<number>, options: EwaldOpt
       for (let j = i + 1; j < N; j++) {
         reduce(setup, lattice, points, i * d, points, j * d, r)
         if (r.every(v => v === 0)) throw new EngineInputError(`points ${i} and ${j} coincide on the torus`, { indices: [i, j] })
-        const t = 2 * q(i) * q(j) * realSum(setup, r, true)
+        const t = 2 * q(i) * q(j) * realSum(setup, r, true, gradient ? gr : undefined)
         pairs.add(t)
         realSize += Math.abs(t)
         if (gradient) {
-          realGradientSum(setup, r, gr)
           for (let c = 0; c < d; c++) {
             gradient[i * d + c] += 2 * q(i) * q(j) * gr[c]
             gradient[j * d + c] -= 2 * q(i) * q(j) * gr[c]

@@ -6,7 +6,8 @@
 // in natural order without a bit-reversal step (common practice; e.g. Van Loan, Computational
 // Frameworks for the Fast Fourier Transform, SIAM 1992, §1.7). Multi-dimensional transforms apply it
 // along each axis in turn. Twiddle factors are evaluated directly (no recurrences), so the rounding
-// error grows like log n.
+// error grows like log n. The Ewald mesh needs real data on 2-D and 3-D meshes and only part of the
+// spectrum, hence realSpectrumPruned and its inverse realFieldFromPruned below.
 import { EngineInputError } from '../errors'
 
 export interface FftPlan {
@@ -197,44 +198,6 @@ function twiddle(plan: FftPlan, base: number, u: number, vr: number, vi: number,
   const t = plan.sin[j]
   yr[at] = vr * c - vi * t
   yi[at] = vr * t + vi * c
-}
-
-/** In-place forward transform of an array of dims[0] × dims[1] × … values, the first axis fastest
- *  (index l_0 + dims[0](l_1 + dims[1](l_2 + …))). */
-export function fftNd(re: Float64Array, im: Float64Array, dims: readonly number[]): void {
-  let total = 1
-  for (const n of dims) total *= n
-  if (re.length !== total || im.length !== total) throw new EngineInputError(`the FFT arrays hold ${re.length} and ${im.length} values for a ${dims.join(' × ')} grid`)
-  let stride = 1
-  for (const n of dims) {
-    const plan = fftPlan(n)
-    const lr = new Float64Array(n)
-    const li = new Float64Array(n)
-    const wr = new Float64Array(n)
-    const wi = new Float64Array(n)
-    const outer = total / (n * stride)
-    for (let o = 0; o < outer; o++) {
-      for (let inner = 0; inner < stride; inner++) {
-        const start = o * n * stride + inner
-        if (stride === 1) {
-          const lineR = re.subarray(start, start + n)
-          const lineI = im.subarray(start, start + n)
-          fft(plan, lineR, lineI, wr, wi)
-          continue
-        }
-        for (let t = 0; t < n; t++) {
-          lr[t] = re[start + t * stride]
-          li[t] = im[start + t * stride]
-        }
-        fft(plan, lr, li, wr, wi)
-        for (let t = 0; t < n; t++) {
-          re[start + t * stride] = lr[t]
-          im[start + t * stride] = li[t]
-        }
-      }
-    }
-    stride *= n
-  }
 }
 
 /** The spectrum of real data on a mesh of dims[0] × dims[1] (× dims[2]) values (first axis fastest), at

@@ -175,8 +175,7 @@ export function meshReciprocalSum(spec: MeshSpec, choice: MeshChoice, points: Ar
   const total = K0 * K1 * K2
   const re = new Float64Array(total)
   // spread the charges: Q(l) = Σ_j q_j Π_i M_p(u_ji K_i − l_i), l_i taken mod K_i
-  const w = [new Float64Array(p), new Float64Array(p), new Float64Array(p)]
-  const at = [new Int32Array(p), new Int32Array(p), new Int32Array(p)]
+  const { w, at, planes } = stencilBuffers(d, p)
   const fracs = [0, 0, 0]
   let sumAbs = 0
   // points in the order of the mesh row they start in (last axis slowest), so that consecutive points
@@ -203,44 +202,24 @@ export function meshReciprocalSum(spec: MeshSpec, choice: MeshChoice, points: Ar
     splineStencil(spec, choice, points, j, w, at, fracs)
     const q = charges ? charges[j] : 1
     sumAbs += Math.abs(q)
-    const w0 = w[0]
-    const w1 = w[1]
-    const a0 = at[0]
-    const a1 = at[1]
-    if (d === 2) {
-      // the first-axis indices run base, base − 1, … down, contiguous unless they wrap
-      const top = a0[0]
-      const flat = top >= p - 1
+    const [w0, w1, w2] = w
+    const [a0, a1, a2] = at
+    // the first-axis indices run base, base − 1, … down, contiguous unless they wrap; in 2-D the
+    // third axis is one plane of weight 1 (w2[0] = 1, a2[0] = 0)
+    const top = a0[0]
+    const flat = top >= p - 1
+    for (let c = 0; c < planes; c++) {
+      const plane = a2[c] * K1
+      const qc = q * w2[c]
       for (let b = 0; b < p; b++) {
-        const row = a1[b] * K0
-        const qb = q * w1[b]
+        const row = (plane + a1[b]) * K0
+        const qb = qc * w1[b]
         if (flat) {
           const o = row + top
           for (let a = 0; a < p; a++) re[o - a] += qb * w0[a]
         }
         else {
           for (let a = 0; a < p; a++) re[row + a0[a]] += qb * w0[a]
-        }
-      }
-    }
-    else {
-      const w2 = w[2]
-      const a2 = at[2]
-      const top = a0[0]
-      const flat = top >= p - 1
-      for (let c = 0; c < p; c++) {
-        const plane = a2[c] * K1
-        const qc = q * w2[c]
-        for (let b = 0; b < p; b++) {
-          const row = (plane + a1[b]) * K0
-          const qb = qc * w1[b]
-          if (flat) {
-            const o = row + top
-            for (let a = 0; a < p; a++) re[o - a] += qb * w0[a]
-          }
-          else {
-            for (let a = 0; a < p; a++) re[row + a0[a]] += qb * w0[a]
-          }
         }
       }
     }
@@ -261,19 +240,17 @@ export function meshReciprocalSum(spec: MeshSpec, choice: MeshChoice, points: Ar
   let boundSum = 0
   let count = 0
   const M2 = d === 3 ? M[2] : 0
-  for (let m2 = d === 3 ? -M2 : 0; m2 <= M2; m2++) {
+  for (let m2 = -M2; m2 <= M2; m2++) {
     for (let m1 = -M[1]; m1 <= M[1]; m1++) {
-      for (let m0 = -M[0]; m0 <= M[0]; m0++) {
-        // half space: the first non-zero of (m0, m1, m2) positive
-        const first = m0 !== 0 ? m0 : m1 !== 0 ? m1 : m2
-        if (!(first > 0)) continue
+      // half space: the first non-zero of (m0, m1, m2) positive, so m0 ≥ 0, and m0 = 0 needs m1 > 0 or m1 = 0 < m2
+      for (let m0 = m1 > 0 || (m1 === 0 && m2 > 0) ? 0 : 1; m0 <= M[0]; m0++) {
         let k2 = 0
         for (let c = 0; c < d; c++) {
           const kc = 2 * Math.PI * (m0 * dual[c] + m1 * dual[d + c] + (d === 3 ? m2 * dual[2 * d + c] : 0))
           k2 += kc * kc
         }
         if (k2 > kc2) continue
-        // m0 ≥ 0 on the half space; the layout of realSpectrumPruned
+        // the layout of realSpectrumPruned
         const idx = d === 2 ? m0 * K1 + (m1 < 0 ? m1 + K1 : m1) : (m0 * w1 + m1 + M[1]) * K2 + (m2 < 0 ? m2 + K2 : m2)
         let bm = B[0][m0 + M[0]] * B[1][m1 + M[1]]
         let grow = (1 + E[0][m0 + M[0]]) * (1 + E[1][m1 + M[1]])
@@ -295,6 +272,15 @@ export function meshReciprocalSum(spec: MeshSpec, choice: MeshChoice, points: Ar
   }
   if (gradient && fr && fi) meshGradient(spec, choice, realFieldFromPruned(fr, fi, d === 3 ? [K0, K1, K2] : [K0, K1], spec.mmax), points, charges, N, gradient)
   return { value: value.value, bound: sumAbs * sumAbs * boundSum, sizes: K.slice(0, d), order: p, waveVectors: 2 * count }
+}
+
+/** Weight and index buffers for one point's stencil; in 2-D the third axis is a single plane of
+ *  weight 1 at index 0, so the spreading and the forces run one loop for both dimensions. */
+function stencilBuffers(d: number, p: number): { w: Float64Array[], at: Int32Array[], planes: number } {
+  const w = [new Float64Array(p), new Float64Array(p), new Float64Array(p)]
+  const at = [new Int32Array(p), new Int32Array(p), new Int32Array(p)]
+  if (d === 2) w[2][0] = 1
+  return { w, at, planes: d === 3 ? p : 1 }
 }
 
 /** For point j and each direction i: the spline weights M_p(frac + s) into w[i], their mesh indices
@@ -329,10 +315,10 @@ function meshGradient(spec: MeshSpec, choice: MeshChoice, phi: Float64Array, poi
   const K = choice.sizes
   const K0 = K[0]
   const K1 = K[1]
-  const w = [new Float64Array(p), new Float64Array(p), new Float64Array(p)]
+  const { w, at, planes } = stencilBuffers(d, p)
+  // derivative weights; in 2-D the third axis keeps derivative 0 (its single weight is constant)
   const dw = [new Float64Array(p), new Float64Array(p), new Float64Array(p)]
   const lower = new Float64Array(p)
-  const at = [new Int32Array(p), new Int32Array(p), new Int32Array(p)]
   const g = [0, 0, 0]
   const fracs = [0, 0, 0]
   for (let j = 0; j < N; j++) {
@@ -346,9 +332,10 @@ function meshGradient(spec: MeshSpec, choice: MeshChoice, phi: Float64Array, poi
     const [w0, w1, w2] = w
     const [d0, d1, d2] = dw
     const [a0, a1, a2] = at
-    if (d === 2) {
+    for (let c = 0; c < planes; c++) {
+      const plane = a2[c] * K1
       for (let b = 0; b < p; b++) {
-        const row = a1[b] * K0
+        const row = (plane + a1[b]) * K0
         let s0 = 0
         let s1 = 0
         for (let a = 0; a < p; a++) {
@@ -356,26 +343,9 @@ function meshGradient(spec: MeshSpec, choice: MeshChoice, phi: Float64Array, poi
           s0 += v * d0[a]
           s1 += v * w0[a]
         }
-        g[0] += s0 * w1[b]
-        g[1] += s1 * d1[b]
-      }
-    }
-    else {
-      for (let c = 0; c < p; c++) {
-        const plane = a2[c] * K1
-        for (let b = 0; b < p; b++) {
-          const row = (plane + a1[b]) * K0
-          let s0 = 0
-          let s1 = 0
-          for (let a = 0; a < p; a++) {
-            const v = phi[row + a0[a]]
-            s0 += v * d0[a]
-            s1 += v * w0[a]
-          }
-          g[0] += s0 * w1[b] * w2[c]
-          g[1] += s1 * d1[b] * w2[c]
-          g[2] += s1 * w1[b] * d2[c]
-        }
+        g[0] += s0 * w1[b] * w2[c]
+        g[1] += s1 * d1[b] * w2[c]
+        g[2] += s1 * w1[b] * d2[c]
       }
     }
     const q = charges ? charges[j] : 1
