@@ -544,13 +544,8 @@ function pointPhases(setup: Setup): (points: ArrayLike<number>, j: number) => { 
       const { M, c, s } = tables[i]
       c[M] = 1
       s[M] = 0
-      // m f reduced mod 1 without rounding: f = hi + lo with hi a multiple of 2^−40, so m·hi is exact
-      // for m < 2^12 and only the small m·lo is rounded
-      const hi = Math.round(f * 2 ** 40) / 2 ** 40
-      const lo = f - hi
       for (let m = 1; m <= M; m++) {
-        const mh = m * hi
-        const phase = 2 * Math.PI * (mh - Math.round(mh) + m * lo)
+        const phase = 2 * Math.PI * m * f
         c[M + m] = c[M - m] = Math.cos(phase)
         s[M + m] = Math.sin(phase)
         s[M - m] = -s[M + m]
